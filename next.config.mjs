@@ -29,6 +29,8 @@ const securityHeaders = [
 const nextConfig = {
   serverExternalPackages: ['knex', 'better-sqlite3', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],
   poweredByHeader: false,
+  // npm test runs tsc over the whole project before building; checking again here only doubles the build time.
+  typescript: { ignoreBuildErrors: true },
   experimental: { authInterrupts: true },
   async headers() {
     return [{ source: '/:path*', headers: securityHeaders }];

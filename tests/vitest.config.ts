@@ -4,7 +4,8 @@ import { defineConfig } from 'vitest/config';
 import path from 'node:path';
 
 export default defineConfig({
-  resolve: { alias: { '@': path.resolve(__dirname), 'server-only': path.resolve(__dirname, 'tests/support/server-only-stub.ts') } },
+  resolve: { alias: { '@': path.resolve(__dirname, '..'), 'server-only': path.resolve(__dirname, 'support/server-only-stub.ts') } },
+  root: path.resolve(__dirname, '..'),
   test: {
     environment: 'node',
     include: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts'],

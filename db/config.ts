@@ -1,0 +1,46 @@
+// Builds the Knex configuration from the validated settings: SQLite file by default,
+// PostgreSQL when DATABASE_URL is set. Shared by the app, scripts and knexfile.ts.
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Knex } from 'knex';
+import { migrationSource } from './migration-source';
+
+type SqliteConnection = { prepare: (sql: string) => unknown; pragma: (sql: string) => unknown };
+
+export function knexConfig(settings: { DATABASE_URL?: string; DATABASE_FILE: string }): Knex.Config {
+  if (settings.DATABASE_URL) {
+    return {
+      client: 'pg',
+      connection: settings.DATABASE_URL,
+      pool: { min: 0, max: 10 },
+      migrations: { migrationSource },
+    };
+  }
+  const filename = path.resolve(settings.DATABASE_FILE);
+  fs.mkdirSync(path.dirname(filename), { recursive: true });
+  return {
+    client: 'better-sqlite3',
+    connection: { filename },
+    useNullAsDefault: true,
+    pool: {
+      min: 1,
+      max: 1,
+      afterCreate(conn: SqliteConnection, done: (err: Error | null, conn: unknown) => void) {
+        try {
+          // WAL lets readers run beside the one writer. synchronous=NORMAL in WAL mode keeps the
+          // database consistent after a crash or power loss and loses at most the last commits
+          // not yet checkpointed by the OS; FULL would fsync every commit, which on a phone-fed
+          // sync endpoint costs more than it buys, since clients keep unacknowledged work and resend it.
+          conn.pragma('journal_mode = WAL');
+          conn.pragma('synchronous = NORMAL');
+          conn.pragma('foreign_keys = ON');
+          conn.pragma('busy_timeout = 5000');
+          done(null, conn);
+        } catch (err) {
+          done(err as Error, conn);
+        }
+      },
+    },
+    migrations: { migrationSource },
+  };
+}
