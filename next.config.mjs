@@ -27,6 +27,8 @@ const securityHeaders = [
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
+  // Lets parallel checkouts or test runs build side by side (e.g. NEXT_DIST_DIR=.next-e2e2).
+  distDir: process.env.NEXT_DIST_DIR || '.next',
   serverExternalPackages: ['knex', 'better-sqlite3', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],
   poweredByHeader: false,
   // npm test runs tsc over the whole project before building; checking again here only doubles the build time.

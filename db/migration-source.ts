@@ -5,9 +5,12 @@ import * as m001 from '../migrations/20261202_001_core';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
-export const MIGRATIONS: Array<[string, Migration]> = [
-  ['20261202_001_core', m001],
-];
+// Kept sorted by name whatever order the lines below are in.
+export const MIGRATIONS: Array<[string, Migration]> = (
+  [
+    ['20261202_001_core', m001],
+  ] as Array<[string, Migration]>
+).sort(([a], [b]) => a.localeCompare(b));
 
 export const migrationSource: Knex.MigrationSource<[string, Migration]> = {
   getMigrations: async () => MIGRATIONS,

@@ -3,15 +3,19 @@
 import fs from 'node:fs';
 import { resetDatabase, startStack, type StackOptions } from './stack';
 
+// E2E_PORT_OFFSET moves every port (and the data files) so two e2e runs can share a machine.
+const offset = Number(process.env.E2E_PORT_OFFSET ?? 0);
+const tag = offset ? `e2e${offset}` : 'e2e';
+
 export const E2E_OPTIONS: StackOptions = {
-  appPort: 3100,
-  smtpPort: 2625,
-  mailHttpPort: 2626,
-  paymentPort: 12211,
-  databaseFile: 'data/e2e.db',
-  mailDir: 'data/e2e-mail',
-  paymentStateFile: 'data/e2e-payments.json',
-  uploadDir: 'data/e2e-uploads',
+  appPort: 3100 + offset,
+  smtpPort: 2625 + offset,
+  mailHttpPort: 2626 + offset,
+  paymentPort: 12211 + offset,
+  databaseFile: `data/${tag}.db`,
+  mailDir: `data/${tag}-mail`,
+  paymentStateFile: `data/${tag}-payments.json`,
+  uploadDir: `data/${tag}-uploads`,
   hearthmarkEnv: 'test',
   quiet: true,
 };
@@ -20,7 +24,7 @@ async function main() {
   for (const p of [E2E_OPTIONS.mailDir, E2E_OPTIONS.uploadDir, E2E_OPTIONS.paymentStateFile]) fs.rmSync(p, { recursive: true, force: true });
   await resetDatabase(E2E_OPTIONS);
   await startStack(E2E_OPTIONS);
-  console.log('e2e stack ready on http://localhost:3100');
+  console.log(`e2e stack ready on http://localhost:${E2E_OPTIONS.appPort}`);
 }
 
 if (process.argv[1]?.endsWith('e2e-server.ts')) {

@@ -4,7 +4,14 @@ import type { Knex } from 'knex';
 import { resetData } from '../db/maintenance';
 import * as core from './01-demo-core';
 
-export const DEMO_SEEDS: Array<[string, { seed: (knex: Knex) => Promise<void> }]> = [['01-demo-core', core]];
+type SeedPart = { seed: (knex: Knex) => Promise<void> };
+
+// Run in name order whatever order the lines below are in.
+export const DEMO_SEEDS: Array<[string, SeedPart]> = (
+  [
+    ['01-demo-core', core],
+  ] as Array<[string, SeedPart]>
+).sort(([a], [b]) => a.localeCompare(b));
 
 export async function seedDemo(knex: Knex): Promise<void> {
   await resetData(knex);

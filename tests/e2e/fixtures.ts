@@ -51,4 +51,5 @@ export const ACCOUNTS = {
   homeowner: { email: 'hal.brennick@homes.test' },
 };
 
-export const MAIL_API = 'http://127.0.0.1:2626';
+export const MAIL_API = `http://127.0.0.1:${2626 + Number(process.env.E2E_PORT_OFFSET ?? 0)}`;
+export const PAYMENT_API = `http://127.0.0.1:${12211 + Number(process.env.E2E_PORT_OFFSET ?? 0)}`;

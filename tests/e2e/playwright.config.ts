@@ -2,6 +2,9 @@
 // in Debian's Chromium, on a phone-sized viewport unless a test says otherwise.
 import { defineConfig } from '@playwright/test';
 
+// Same offset as scripts/e2e-server.ts: lets two e2e runs share one machine.
+const offset = Number(process.env.E2E_PORT_OFFSET ?? 0);
+
 export default defineConfig({
   testDir: '.',
   outputDir: '../../test-results',
@@ -12,7 +15,7 @@ export default defineConfig({
   retries: 0,
   reporter: [['list']],
   use: {
-    baseURL: 'http://localhost:3100',
+    baseURL: `http://localhost:${3100 + offset}`,
     viewport: { width: 390, height: 844 },
     screenshot: 'only-on-failure',
     trace: 'off',
@@ -24,7 +27,7 @@ export default defineConfig({
   webServer: {
     command: 'npx tsx scripts/e2e-server.ts',
     cwd: '../..',
-    url: 'http://127.0.0.1:3100/api/v1/health',
+    url: `http://127.0.0.1:${3100 + offset}/api/v1/health`,
     reuseExistingServer: !process.env.CI,
     timeout: 180_000,
     stdout: 'pipe',
