@@ -13,8 +13,8 @@ export const FUEL_IDS: readonly FuelId[] = Object.freeze([
 
 export const FUEL_LABELS: Readonly<Record<FuelId, string>> = Object.freeze({
   'natural-gas': 'Natural gas',
-  propane: 'Propane (LPG)',
-  butane: 'Butane (LPG)',
+  propane: 'Propane',
+  butane: 'Butane',
   kerosene: 'Kerosene',
   'gas-oil': 'Gas oil',
 });

@@ -16,7 +16,7 @@ function isFiniteNumber(value: unknown): value is number {
   return typeof value === 'number' && Number.isFinite(value);
 }
 
-interface RangeRule {
+export interface RangeRule {
   min: number;
   max: number;
   minExcluded?: boolean;
@@ -49,7 +49,9 @@ export function requireInRange(field: CombustionInputField, value: unknown, rule
 // CO cannot exceed 100 % of the sample.
 export const CO_PPM_RANGE: RangeRule = { min: 0, max: 1_000_000 };
 // 30 % is well above any fuel's CO2max; more means a unit mix-up or a broken sensor.
-export const CO2_PCT_RANGE: RangeRule = { min: 0, max: 30, minExcluded: true };
+// Measured CO2 divides, so it has a floor below any analyser's resolution that keeps results finite.
+export const CO2_PCT_RANGE: RangeRule = { min: 0.01, max: 30 };
+export const CO2_MAX_PCT_RANGE: RangeRule = { min: 0, max: 30, minExcluded: true };
 // At 20.9 % the sample is pure air and every air-free formula divides by zero.
 export const O2_PCT_RANGE: RangeRule = { min: 0, max: 20.9, maxExcluded: true };
 // Wide enough for outdoor air in a cold climate and any flue, narrow enough to catch typos and °F/°C mix-ups.

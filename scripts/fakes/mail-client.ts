@@ -41,8 +41,7 @@ function trimBase(baseUrl: string): string {
 /** Newest first. `to` matches any recipient (To, Cc or envelope), case-insensitively. */
 export async function listMessages(baseUrl: string, options: { to?: string } = {}): Promise<MessageSummary[]> {
   const query = options.to ? `?to=${encodeURIComponent(options.to)}` : '';
-  const body = await getJson<{ messages: MessageSummary[] }>(`${trimBase(baseUrl)}/messages${query}`);
-  return body.messages;
+  return getJson<MessageSummary[]>(`${trimBase(baseUrl)}/messages${query}`);
 }
 
 export async function getMessage(baseUrl: string, id: string): Promise<MessageWithLinks> {
