@@ -2,6 +2,7 @@
 // vitest and the Next server alike. Append a line for each new file in migrations/.
 import type { Knex } from 'knex';
 import * as m001 from '../migrations/20261202_001_core';
+import * as m010 from '../migrations/20261202_010_limits';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
@@ -9,6 +10,7 @@ type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Prom
 export const MIGRATIONS: Array<[string, Migration]> = (
   [
     ['20261202_001_core', m001],
+    ['20261202_010_limits', m010],
   ] as Array<[string, Migration]>
 ).sort(([a], [b]) => a.localeCompare(b));
 

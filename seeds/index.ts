@@ -3,6 +3,7 @@
 import type { Knex } from 'knex';
 import { resetData } from '../db/maintenance';
 import * as core from './01-demo-core';
+import * as limits from './02-demo-limits';
 
 type SeedPart = { seed: (knex: Knex) => Promise<void> };
 
@@ -10,6 +11,7 @@ type SeedPart = { seed: (knex: Knex) => Promise<void> };
 export const DEMO_SEEDS: Array<[string, SeedPart]> = (
   [
     ['01-demo-core', core],
+    ['02-demo-limits', limits],
   ] as Array<[string, SeedPart]>
 ).sort(([a], [b]) => a.localeCompare(b));
 
