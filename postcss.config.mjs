@@ -1,2 +1,4 @@
 // PostCSS runs Tailwind CSS 4 for every stylesheet; nothing else to configure here.
-export default { plugins: { '@tailwindcss/postcss': {} } };
+const config = { plugins: { '@tailwindcss/postcss': {} } };
+
+export default config;
