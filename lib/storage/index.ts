@@ -1,13 +1,15 @@
 import 'server-only';
 // Photos and PDFs: one storage interface, the driver chosen by settings (STORAGE_DRIVER=disk|s3).
-// Callers always go through storageFor(organisationId), which only accepts keys under that
-// organisation's prefix, so a key taken from one organisation's row can never read another's file.
+// Callers always go through storageFor(organisationId) (or fileStore() for server-made keys), which
+// only accept keys under an organisation's prefix, so a key can never reach another organisation's
+// file or climb out of the upload folder.
 //
 // Files reach the browser by streaming through our own route handlers, never by signed S3 URLs:
 // every download then passes the same session, role and organisation check as the rest of the API,
 // access ends the moment a user is deactivated (a signed URL stays valid until it expires), the
 // bucket can stay private and unreachable from the internet, and disk and S3 behave identically.
 // Photos (compressed on the phone) and certificates are small, so the extra hop costs little.
+import path from 'node:path';
 import { env } from '@/lib/env';
 import { AppError } from '@/lib/errors';
 import { DiskStorage } from './disk';
@@ -58,7 +60,7 @@ export function objectStorage(): ObjectStorage {
           secretAccessKey: e.S3_SECRET_ACCESS_KEY,
           forcePathStyle: e.S3_FORCE_PATH_STYLE === 'true',
         }
-      : { driver: 'disk' as const, root: e.UPLOAD_DIR };
+      : { driver: 'disk' as const, root: path.resolve(e.UPLOAD_DIR) };
   const signature = JSON.stringify(settings);
   if (holder.__hearthmarkStorage?.signature !== signature) {
     const driver = settings.driver === 's3' ? new S3Storage(settings) : new DiskStorage(settings.root);
@@ -67,7 +69,49 @@ export function objectStorage(): ObjectStorage {
   return holder.__hearthmarkStorage.driver;
 }
 
-/** Storage for one organisation's files; the only way app code should reach stored objects. */
+/** Storage for one organisation's files; the way app code should reach stored objects. */
 export function storageFor(organisationId: string): OrganisationStorage {
   return scopedStorage(objectStorage(), organisationId);
+}
+
+// The field app's photo store: keys the server makes itself (organisation/visit/uuid.ext), with the
+// content type following from the extension. Backed by the same configured driver as storageFor().
+export interface FileStore {
+  put(key: string, bytes: Uint8Array): Promise<void>;
+  /** null when there is no such file. */
+  get(key: string): Promise<Buffer | null>;
+  remove(key: string): Promise<void>;
+}
+
+const KEY_PATTERN = /^[a-z0-9-]+(\/[a-z0-9-]+)*\.(jpg|png|webp)$/;
+const CONTENT_TYPES: Record<string, string> = { jpg: 'image/jpeg', png: 'image/png', webp: 'image/webp' };
+
+export function checkKey(key: string): string {
+  if (!KEY_PATTERN.test(key)) throw new Error(`storage key not allowed: ${key}`);
+  return key;
+}
+
+function storeOver(driver: () => ObjectStorage): FileStore {
+  return {
+    async put(key, bytes) {
+      await driver().put(checkKey(key), bytes, CONTENT_TYPES[key.slice(key.lastIndexOf('.') + 1)]!);
+    },
+    async get(key) {
+      const found = await driver().get(checkKey(key));
+      return found ? Buffer.from(found.bytes) : null;
+    },
+    async remove(key) {
+      await driver().delete(checkKey(key));
+    },
+  };
+}
+
+export function diskStore(root: string): FileStore {
+  const driver = new DiskStorage(root);
+  return storeOver(() => driver);
+}
+
+/** The configured store (disk or S3, see STORAGE_DRIVER). */
+export function fileStore(): FileStore {
+  return storeOver(objectStorage);
 }

@@ -96,7 +96,7 @@ describe.each(drivers)('%s storage', (_name, driver) => {
 
 describe('driver selection', () => {
   it('follows STORAGE_DRIVER and the S3 settings, with no code change', async () => {
-    const { storageFor, objectStorage } = await import('@/lib/storage');
+    const { storageFor, objectStorage, fileStore } = await import('@/lib/storage');
     const { resetEnvCache } = await import('@/lib/env');
     const saved = { ...process.env };
     try {
@@ -107,6 +107,13 @@ describe('driver selection', () => {
       const key = store.keyFor('photos', 'p.jpg');
       await store.put(key, new Uint8Array([7]), 'image/jpeg');
       expect(Array.from((await s3.get(key))!.bytes)).toEqual([7]);
+      // The field app's photo store rides on the same configured driver.
+      const photoKey = `${newId()}/visit-1/${newId()}.jpg`;
+      await fileStore().put(photoKey, new Uint8Array([9, 9]));
+      expect((await s3.get(photoKey))?.contentType).toBe('image/jpeg');
+      expect(Array.from((await fileStore().get(photoKey))!)).toEqual([9, 9]);
+      await fileStore().remove(photoKey);
+      expect(await s3.exists(photoKey)).toBe(false);
 
       process.env.STORAGE_DRIVER = 'disk';
       resetEnvCache();
