@@ -3,7 +3,17 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import type { Knex } from 'knex';
+import pg from 'pg';
 import { migrationSource } from './migration-source';
+
+// node-postgres hands back bigint (count(*), sum of integers) and numeric as strings, and turns a
+// DATE into a Date at local midnight, which shifts the day whenever the server's zone is not UTC.
+// Read them the way SQLite does: numbers, and 'YYYY-MM-DD' text. Counts never near 2^53 here.
+pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
+pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => Number(v));
+pg.types.setTypeParser(pg.types.builtins.DATE, (v) => v);
+
+type PgConnection = { query: (sql: string, cb: (err: Error | null) => void) => void };
 
 type SqliteConnection = { prepare: (sql: string) => unknown; pragma: (sql: string) => unknown };
 
@@ -12,7 +22,15 @@ export function knexConfig(settings: { DATABASE_URL?: string; DATABASE_FILE: str
     return {
       client: 'pg',
       connection: settings.DATABASE_URL,
-      pool: { min: 0, max: 10 },
+      pool: {
+        min: 0,
+        max: 10,
+        // Every session in UTC, whatever the server's default: timestamps and any date arithmetic in
+        // SQL then read the same as on SQLite, where times are stored as UTC text.
+        afterCreate(conn: PgConnection, done: (err: Error | null, conn: unknown) => void) {
+          conn.query("set time zone 'UTC'", (err) => done(err, conn));
+        },
+      },
       migrations: { migrationSource },
     };
   }

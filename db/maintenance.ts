@@ -1,6 +1,6 @@
 // Whole-database chores for scripts and tests: migrate, and empty every data table before a
 // demo seed. Never imported by routes. Engine-specific SQL lives here, branched by client.
-import type { Knex } from 'knex';
+import knexLib, { type Knex } from 'knex';
 
 export async function migrateLatest(knex: Knex): Promise<void> {
   await knex.migrate.latest();
@@ -38,5 +38,24 @@ export async function resetData(knex: Knex): Promise<void> {
     for (const t of tables) await knex(t).del();
   } finally {
     await knex.raw('pragma foreign_keys = on');
+  }
+}
+
+/**
+ * Drops and recreates one PostgreSQL database (tests: each vitest worker owns one). Connects to the
+ * server's `postgres` database to do it, since a database cannot drop itself.
+ */
+export async function recreatePgDatabase(databaseUrl: string): Promise<void> {
+  const url = new URL(databaseUrl);
+  const name = decodeURIComponent(url.pathname.slice(1));
+  if (!/^[a-z_][a-z0-9_]{0,62}$/.test(name) || name === 'postgres') throw new Error(`refusing to recreate database "${name}"`);
+  url.pathname = '/postgres';
+  const admin = knexLib({ client: 'pg', connection: url.toString(), pool: { min: 0, max: 1 } });
+  try {
+    // force: ends connections a previous test file left open (PostgreSQL 13+).
+    await admin.raw('drop database if exists ?? with (force)', [name]);
+    await admin.raw('create database ??', [name]);
+  } finally {
+    await admin.destroy();
   }
 }

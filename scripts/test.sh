@@ -25,6 +25,9 @@ step "lint"
 npx eslint . --max-warnings=0
 step "unit and integration tests"
 npx vitest run --config tests/vitest.config.ts
+step "integration tests on PostgreSQL and the S3 fake"
+# Starts (and installs when missing) a throwaway PostgreSQL server; see scripts/pg-test.ts.
+npx tsx scripts/pg-test.ts
 step "production build"
 npx next build
 step "end-to-end tests"

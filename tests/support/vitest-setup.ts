@@ -8,6 +8,13 @@ import { vi } from 'vitest';
 const worker = process.env.VITEST_POOL_ID ?? process.env.VITEST_WORKER_ID ?? '0';
 process.env.HEARTHMARK_ENV ??= 'test';
 process.env.DATABASE_FILE = path.join(os.tmpdir(), `hearthmark-test-${process.pid}-${worker}.db`);
+// On PostgreSQL (scripts/pg-test.ts sets DATABASE_URL) each worker gets its own database on that server.
+if (process.env.DATABASE_URL) {
+  process.env.HEARTHMARK_TEST_PG_SERVER ??= process.env.DATABASE_URL;
+  const url = new URL(process.env.HEARTHMARK_TEST_PG_SERVER);
+  url.pathname = `/hearthmark_test_${process.pid}_${worker}`;
+  process.env.DATABASE_URL = url.toString();
+}
 process.env.NEXTAUTH_SECRET ??= 'test-secret-test-secret-test-secret-0123';
 process.env.NEXTAUTH_URL ??= 'http://localhost:3000';
 process.env.UPLOAD_DIR = path.join(os.tmpdir(), `hearthmark-test-uploads-${process.pid}-${worker}`);

@@ -1,0 +1,47 @@
+// The integration suite on the scale configuration: a throwaway PostgreSQL server and the local S3
+// fake, then `vitest run tests/integration` with DATABASE_URL and STORAGE_DRIVER=s3 pointing at them.
+// Run by scripts/test.sh after the SQLite pass; extra arguments go to vitest (e.g. a test path).
+import { spawn } from 'node:child_process';
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { startPgCluster, type PgCluster } from './pg-cluster';
+import { startS3Fake, type S3Fake } from './fakes/s3-fake';
+
+async function main(): Promise<number> {
+  const started = Date.now();
+  let cluster: PgCluster | undefined;
+  let s3: S3Fake | undefined;
+  const s3Dir = fs.mkdtempSync(path.join(os.tmpdir(), 'hearthmark-s3-'));
+  const cleanUp = async () => {
+    cluster?.stop();
+    await s3?.close().catch(() => undefined);
+    fs.rmSync(s3Dir, { recursive: true, force: true });
+  };
+  for (const sig of ['SIGINT', 'SIGTERM'] as const) process.on(sig, () => void cleanUp().then(() => process.exit(130)));
+
+  try {
+    cluster = await startPgCluster();
+    s3 = await startS3Fake({ dir: s3Dir, bucket: 'hearthmark-test' });
+    const args = process.argv.slice(2);
+    const vitest = path.join(process.cwd(), 'node_modules', '.bin', 'vitest');
+    const child = spawn(vitest, ['run', '--config', 'tests/vitest.config.ts', ...(args.length ? args : ['tests/integration'])], {
+      stdio: 'inherit',
+      // vitest-setup gives each worker its own database on this server.
+      env: { ...process.env, DATABASE_URL: cluster.url(), ...s3.settings },
+    });
+    const code = await new Promise<number>((resolve) => child.on('exit', (c) => resolve(c ?? 1)));
+    console.log(`[pg] integration suite on PostgreSQL + S3 fake: ${code === 0 ? 'passed' : 'FAILED'} in ${Math.round((Date.now() - started) / 1000)} s`);
+    return code;
+  } finally {
+    await cleanUp();
+  }
+}
+
+main().then(
+  (code) => process.exit(code),
+  (err) => {
+    console.error(`[pg] ${(err as Error).message}`);
+    process.exit(1);
+  },
+);
