@@ -3,6 +3,8 @@
 import type { Knex } from 'knex';
 import * as m001 from '../migrations/20261202_001_core';
 import * as m010 from '../migrations/20261202_010_limits';
+import * as m050 from '../migrations/20261202_050_billing';
+import * as m030 from '../migrations/20261202_030_office';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
@@ -11,6 +13,8 @@ export const MIGRATIONS: Array<[string, Migration]> = (
   [
     ['20261202_001_core', m001],
     ['20261202_010_limits', m010],
+    ['20261202_050_billing', m050],
+    ['20261202_030_office', m030],
   ] as Array<[string, Migration]>
 ).sort(([a], [b]) => a.localeCompare(b));
 

@@ -1,8 +1,10 @@
-import { apiRoute, parseQuery } from '@/lib/api/handler';
+import { NextResponse } from 'next/server';
+import { apiRoute, parseJson, parseQuery } from '@/lib/api/handler';
 import { ROLES } from '@/lib/auth/roles';
 import { siteAudience } from '@/lib/auth/audience';
-import { siteListQuerySchema } from '@/lib/validations/sites';
-import { listSites } from '@/db/sites';
+import { siteListQuerySchema, siteSchema } from '@/lib/validations/sites';
+import { createSite, listSites } from '@/db/sites';
+import { actorFrom } from '@/db/audit';
 
 export const runtime = 'nodejs';
 
@@ -10,4 +12,10 @@ export const runtime = 'nodejs';
 export const GET = apiRoute(ROLES, async ({ req, user }) => {
   const query = parseQuery(req, siteListQuerySchema);
   return listSites(siteAudience(user), query);
+});
+
+// Only the office registers sites.
+export const POST = apiRoute(['office'], async ({ req, user }) => {
+  const data = await parseJson(req, siteSchema);
+  return NextResponse.json({ site: await createSite(actorFrom(user), data) }, { status: 201 });
 });

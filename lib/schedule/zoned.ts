@@ -1,0 +1,39 @@
+// Wall-clock times in the organisation's time zone <-> instants, with Intl only (no extra package).
+// Pure; used by the booking handler and the board.
+
+function offsetMinutes(instant: Date, timeZone: string): number {
+  const f = new Intl.DateTimeFormat('en-GB', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+  const p = Object.fromEntries(f.formatToParts(instant).map((x) => [x.type, x.value]));
+  const asUtc = Date.UTC(Number(p.year), Number(p.month) - 1, Number(p.day), Number(p.hour), Number(p.minute), Number(p.second));
+  return Math.round((asUtc - instant.getTime()) / 60000);
+}
+
+/** '2026-03-29' + '09:30' in Europe/London → the instant. Two passes settle DST edges. */
+export function zonedToUtc(date: string, time: string, timeZone: string): Date {
+  const [y, m, d] = date.split('-').map(Number);
+  const [hh, mm] = time.split(':').map(Number);
+  const naive = Date.UTC(y, m - 1, d, hh, mm);
+  let guess = naive - offsetMinutes(new Date(naive), timeZone) * 60000;
+  guess = naive - offsetMinutes(new Date(guess), timeZone) * 60000;
+  return new Date(guess);
+}
+
+/** The instant's date and HH:MM in the time zone. */
+export function utcToZoned(instant: Date | string, timeZone: string): { date: string; time: string } {
+  const t = typeof instant === 'string' ? new Date(instant) : instant;
+  const f = new Intl.DateTimeFormat('en-CA', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' });
+  const p = Object.fromEntries(f.formatToParts(t).map((x) => [x.type, x.value]));
+  return { date: `${p.year}-${p.month}-${p.day}`, time: `${p.hour}:${p.minute}` };
+}
+
+/** Monday of the week containing `date`. */
+export function weekStart(date: string): string {
+  const [y, m, d] = date.split('-').map(Number);
+  const day = new Date(Date.UTC(y, m - 1, d)).getUTCDay();
+  return new Date(Date.UTC(y, m - 1, d - ((day + 6) % 7))).toISOString().slice(0, 10);
+}
+
+export function shiftDate(date: string, days: number): string {
+  const [y, m, d] = date.split('-').map(Number);
+  return new Date(Date.UTC(y, m - 1, d + days)).toISOString().slice(0, 10);
+}
