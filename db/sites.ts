@@ -3,6 +3,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { db } from './knex';
 import { toIso } from './rows';
+import { whereContains } from './search';
 import type { SiteData, SiteListQuery } from '@/lib/validations/sites';
 import { recordAudit, type Actor as SiteActor } from './audit';
 import { newId } from '@/lib/ids';
@@ -81,7 +82,8 @@ function withDetails(q: Knex.QueryBuilder, knex: Knex) {
 export async function listSites(audience: SiteAudience, query: SiteListQuery): Promise<Page<SiteSummary>> {
   const knex = db();
   const base = scoped(knex, audience);
-  if (query.q) base.andWhere('s.search_text', 'like', `%${query.q.toLowerCase().replace(/[%_\\]/g, (c) => `\\${c}`)}%`);
+  // whereContains adds ESCAPE '\': without it SQLite reads the backslashes literally and a search for "50%" finds nothing.
+  if (query.q) whereContains(base, ['s.search_text'], query.q);
   if (query.jurisdictionId) base.andWhere('s.jurisdiction_id', query.jurisdictionId);
   if (query.customerId) base.andWhere((w) => w.where('s.landlord_id', query.customerId!).orWhere('s.homeowner_id', query.customerId!));
   const [{ count }] = await base.clone().count<{ count: number | string }[]>({ count: '*' });
