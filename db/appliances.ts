@@ -67,8 +67,8 @@ export async function listAppliances(organisationId: string, query: ApplianceLis
   if (query.q) {
     const like = escapeLike(query.q);
     q.andWhere((w) =>
-      w.whereRaw('lower(a.make) like ?', [like]).orWhereRaw('lower(a.model) like ?', [like]).orWhereRaw('lower(a.serial) like ?', [like])
-        .orWhereRaw('lower(a.location) like ?', [like]).orWhereRaw('lower(s.reference) like ?', [like]),
+      w.whereRaw("lower(a.make) like ? escape '\\'", [like]).orWhereRaw("lower(a.model) like ? escape '\\'", [like]).orWhereRaw("lower(a.serial) like ? escape '\\'", [like])
+        .orWhereRaw("lower(a.location) like ? escape '\\'", [like]).orWhereRaw("lower(s.reference) like ? escape '\\'", [like]),
     );
   }
   const [{ count }] = await q.clone().count<{ count: number | string }[]>({ count: '*' });

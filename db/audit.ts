@@ -70,7 +70,7 @@ export async function listAudit(organisationId: string, query: AuditQuery): Prom
   if (query.to) q.andWhere('a.at', '<', new Date(Date.parse(`${query.to}T00:00:00.000Z`) + 86400_000).toISOString());
   if (query.q) {
     const like = `%${query.q.toLowerCase().replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
-    q.andWhere((w) => w.whereRaw('lower(a.summary) like ?', [like]).orWhereRaw('lower(a.actor_name) like ?', [like]));
+    q.andWhere((w) => w.whereRaw("lower(a.summary) like ? escape '\\'", [like]).orWhereRaw("lower(a.actor_name) like ? escape '\\'", [like]));
   }
   const [{ count }] = await q.clone().count<{ count: number | string }[]>({ count: '*' });
   const rows = await q

@@ -56,7 +56,7 @@ export async function listCustomers(organisationId: string, query: CustomerListQ
   if (query.role) q.andWhere('u.role', query.role);
   if (query.q) {
     const like = escapeLike(query.q);
-    q.andWhere((w) => w.whereRaw('lower(u.name) like ?', [like]).orWhereRaw('lower(u.email) like ?', [like]));
+    q.andWhere((w) => w.whereRaw("lower(u.name) like ? escape '\\'", [like]).orWhereRaw("lower(u.email) like ? escape '\\'", [like]));
   }
   const [{ count }] = await q.clone().count<{ count: number | string }[]>({ count: '*' });
   const rows = await withCount(q.clone())
