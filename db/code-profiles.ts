@@ -21,7 +21,7 @@ import type {
 /** A rule as stored: its id is unique to its version, its ruleKey follows it from version to version. */
 export type StoredRule = LimitRule & { ruleKey: string; note: string | null };
 
-export type StoredVersion = ProfileVersion & {
+export type StoredVersion = Omit<ProfileVersion, 'rules'> & {
   id: string;
   summary: string | null;
   createdAt: string;
@@ -356,4 +356,71 @@ export async function updateVersion(input: {
   if (Object.keys(patch).length > 0) await knex('code_profile_versions').where({ id: String(row.id) }).update(patch);
   const versions = await loadVersions(knex, [input.profileId]);
   return versions.get(input.profileId)!.find((v) => v.version === input.version)!;
+}
+
+export type VerdictAppliance = {
+  id: string;
+  siteId: string;
+  category: ApplianceCategory;
+  fuel: FuelId;
+  location: string;
+  make: string | null;
+  model: string | null;
+  manufacturer: { coCo2Ratio: number | null; coAirFreePpm: number | null; coAsMeasuredPpm: number | null };
+};
+
+function toVerdictAppliance(r: Row): VerdictAppliance {
+  return {
+    id: String(r.id),
+    siteId: String(r.site_id),
+    category: r.category as ApplianceCategory,
+    fuel: r.fuel as FuelId,
+    location: String(r.location),
+    make: (r.make as string | null) ?? null,
+    model: (r.model as string | null) ?? null,
+    manufacturer: { coCo2Ratio: toNum(r.mfr_ratio_max), coAirFreePpm: toNum(r.mfr_co_air_free_max_ppm), coAsMeasuredPpm: toNum(r.mfr_co_max_ppm) },
+  };
+}
+
+const APPLIANCE_COLUMNS = ['a.id', 'a.site_id', 'a.category', 'a.fuel', 'a.location', 'a.make', 'a.model', 'a.mfr_ratio_max', 'a.mfr_co_air_free_max_ppm', 'a.mfr_co_max_ppm'];
+
+/** The fields of an appliance a verdict needs; null unless it is at that site in that organisation. */
+export async function getVerdictAppliance(input: { organisationId: string; siteId: string; applianceId: string }): Promise<VerdictAppliance | null> {
+  const row: Row | undefined = await db()('appliances as a')
+    .where({ 'a.id': input.applianceId, 'a.site_id': input.siteId, 'a.organisation_id': input.organisationId })
+    .first(APPLIANCE_COLUMNS);
+  return row ? toVerdictAppliance(row) : null;
+}
+
+export type PreviewSite = { id: string; reference: string; address: string; jurisdictionName: string; appliances: VerdictAppliance[] };
+
+/** Sites with their active appliances for the office's preview picker (the first `limit` by reference). */
+export async function listPreviewSites(input: { organisationId: string; limit: number }): Promise<PreviewSite[]> {
+  const knex = db();
+  const sites: Row[] = await knex('sites as s')
+    .join('jurisdictions as j', 'j.id', 's.jurisdiction_id')
+    .where('s.organisation_id', input.organisationId)
+    .orderBy('s.reference', 'asc')
+    .limit(input.limit)
+    .select('s.id', 's.reference', 's.address_line1', 's.town', 'j.name as jurisdiction_name');
+  const appliances: Row[] = sites.length
+    ? await knex('appliances as a')
+        .whereIn('a.site_id', sites.map((s) => String(s.id)))
+        .andWhere('a.organisation_id', input.organisationId)
+        .andWhere('a.active', true)
+        .orderBy('a.location', 'asc')
+        .select(APPLIANCE_COLUMNS)
+    : [];
+  return sites.map((s) => ({
+    id: String(s.id),
+    reference: String(s.reference),
+    address: `${String(s.address_line1)}, ${String(s.town)}`,
+    jurisdictionName: String(s.jurisdiction_name),
+    appliances: appliances.filter((a) => String(a.site_id) === String(s.id)).map(toVerdictAppliance),
+  }));
+}
+
+/** Renames a profile; names are not limits, so no new version is needed. */
+export async function renameProfile(input: { organisationId: string; profileId: string; name: string }): Promise<void> {
+  await db()('code_profiles').where({ id: input.profileId, organisation_id: input.organisationId }).update({ name: input.name.trim(), updated_at: nowIso() });
 }

@@ -7,3 +7,4 @@ export { resolveLimits, findResolved, versionInForce, scopeMatches, scopeSpecifi
 export { judge } from './judge';
 export { PRESETS, MEMORY_NOTE, getPreset, applyPreset, type LimitPreset, type PresetRule } from './presets';
 export { checkRule, checkProfileVersion, type RuleFieldError } from './validate';
+export { compareRuleSets, type RuleComparison, type RuleChangeKind } from './compare';
