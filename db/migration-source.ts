@@ -3,8 +3,10 @@
 import type { Knex } from 'knex';
 import * as m001 from '../migrations/20261202_001_core';
 import * as m010 from '../migrations/20261202_010_limits';
+import * as m020 from '../migrations/20261202_020_field';
 import * as m050 from '../migrations/20261202_050_billing';
 import * as m030 from '../migrations/20261202_030_office';
+import * as m040 from '../migrations/20261202_040_certificates';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
@@ -13,8 +15,10 @@ export const MIGRATIONS: Array<[string, Migration]> = (
   [
     ['20261202_001_core', m001],
     ['20261202_010_limits', m010],
+    ['20261202_020_field', m020],
     ['20261202_050_billing', m050],
     ['20261202_030_office', m030],
+    ['20261202_040_certificates', m040],
   ] as Array<[string, Migration]>
 ).sort(([a], [b]) => a.localeCompare(b));
 
