@@ -1,0 +1,547 @@
+import 'server-only';
+// Applies the field app's offline mutations. Each one runs in its own transaction together with
+// the row that records its id in sync_mutations, so it is applied exactly once: a resent mutation
+// finds its id and is answered "duplicate". One bad mutation is rejected on its own; the rest of the
+// batch still applies. Nothing here overwrites a reading: corrections and conflicts add rows.
+import { createHash } from 'node:crypto';
+import type { Knex } from 'knex';
+import { db } from './knex';
+import { nowIso, toDateOnly, toIso } from './rows';
+import { applianceColumns, applianceDetailsFromRow, getOrganisationTimeZone, loadVisitRecords } from './inspections';
+import { loadLimitContextForSite } from './code-profiles';
+import { AppError, fieldsFromIssues } from '@/lib/errors';
+import { newId } from '@/lib/ids';
+import { heatInputKw, CombustionInputError } from '@/lib/combustion';
+import { analyseReading, canonicalReading, currentReadings, localDate, submitBlockers, visitVerdicts, type LimitContext } from '@/lib/field';
+import { mutationSchema, type Mutation, type MutationOf, type MutationResult } from '@/lib/validations/sync';
+import type { ApplianceDetails } from '@/lib/validations/inspection';
+import { cleanImage, type CleanImage } from '@/lib/storage/images';
+import { fileStore } from '@/lib/storage';
+
+type Row = Record<string, unknown>;
+export type SyncUser = { id: string; organisationId: string };
+
+/** Work done before the transaction: slow or reading through the shared pool (SQLite has one connection). */
+type Prepared = { limits?: LimitContext; timeZone?: string; signature?: { photoId: string; key: string; image: CleanImage } };
+
+type Ctx<K extends Mutation['kind'] = Mutation['kind']> = {
+  trx: Knex.Transaction;
+  user: SyncUser;
+  visit: Row;
+  mutation: MutationOf<K>;
+  prepared: Prepared;
+  now: string;
+};
+
+/** What the helpers need from any mutation's context. */
+type Base = { trx: Knex.Transaction; user: SyncUser; visit: Row; now: string; mutation: { id: string } };
+
+type Outcome = { conflict?: boolean; warnings?: string[] };
+
+const OPEN_STATUSES = ['booked', 'on_site'];
+
+function rejected(id: string, err: AppError): MutationResult {
+  return { id, status: 'rejected', httpStatus: err.status, code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) };
+}
+
+/** Field names relative to the payload ("values.o2Pct"), as the form that made it names them. */
+function payloadFields(issues: ReadonlyArray<{ path: ReadonlyArray<PropertyKey>; message: string }>): Record<string, string> {
+  return fieldsFromIssues(issues.map((i) => ({ ...i, path: i.path[0] === 'payload' ? i.path.slice(1) : i.path })));
+}
+
+async function visitFor(knex: Knex, user: SyncUser, visitId: string): Promise<Row> {
+  // Another organisation's visit, or one assigned to someone else, answers exactly like a missing one.
+  const visit = (await knex('visits').where({ id: visitId, organisation_id: user.organisationId, engineer_id: user.id }).first()) as Row | undefined;
+  if (!visit) throw new AppError('not_found', 'No such visit among yours.');
+  return visit;
+}
+
+async function applianceAtSite(trx: Knex, visit: Row, applianceId: string, field = 'applianceId'): Promise<Row> {
+  const row = (await trx('appliances').where({ id: applianceId, site_id: visit.site_id, organisation_id: visit.organisation_id }).first()) as Row | undefined;
+  if (!row) throw new AppError('invalid_input', 'That appliance is not at this site.', { [field]: 'No such appliance at this site' });
+  return row;
+}
+
+async function ensureInspection(ctx: Base, applianceId: string): Promise<Row> {
+  const existing = (await ctx.trx('inspections').where({ visit_id: ctx.visit.id, appliance_id: applianceId }).first()) as Row | undefined;
+  if (existing) return existing;
+  const appliance = await applianceAtSite(ctx.trx, ctx.visit, applianceId);
+  const row = {
+    id: newId(),
+    organisation_id: ctx.user.organisationId,
+    visit_id: ctx.visit.id,
+    appliance_id: applianceId,
+    appliance_json: JSON.stringify(applianceDetailsFromRow(appliance)),
+    checklist_json: '{}',
+    created_at: ctx.now,
+    updated_at: ctx.now,
+  };
+  await ctx.trx('inspections').insert(row);
+  return row;
+}
+
+async function checkAnalyser(ctx: Base, analyserId: string | null, field: string): Promise<Row | null> {
+  if (analyserId === null) return null;
+  const row = (await ctx.trx('analysers').where({ id: analyserId, organisation_id: ctx.user.organisationId }).first()) as Row | undefined;
+  if (!row) throw new AppError('invalid_input', 'That analyser is not in your register.', { [field]: 'No such analyser in the register' });
+  return row;
+}
+
+function sameDetails(row: Row, details: ApplianceDetails): boolean {
+  const stored = applianceColumns(applianceDetailsFromRow(row));
+  const given = applianceColumns(details);
+  return Object.keys(given).every((k) => (stored[k] ?? null) === (given[k] ?? null));
+}
+
+function detailsSummary(office: ApplianceDetails, engineer: ApplianceDetails): string {
+  const changed = (Object.keys(engineer) as Array<keyof ApplianceDetails>)
+    .filter((k) => (office[k] ?? null) !== (engineer[k] ?? null))
+    .map((k) => `${k}: office "${office[k] ?? '—'}", engineer "${engineer[k] ?? '—'}"`);
+  return `The office changed this appliance while the engineer was recording; both versions are kept. ${changed.join('; ')}`;
+}
+
+async function addConflict(ctx: Base, input: { kind: 'appliance_details' | 'reading'; applianceId: string; server: unknown; client: unknown; summary: string }) {
+  await ctx.trx('sync_conflicts').insert({
+    id: newId(),
+    organisation_id: ctx.user.organisationId,
+    visit_id: ctx.visit.id,
+    appliance_id: input.applianceId,
+    kind: input.kind,
+    mutation_id: ctx.mutation.id,
+    server_json: JSON.stringify(input.server),
+    client_json: JSON.stringify(input.client),
+    summary: input.summary,
+    created_at: ctx.now,
+  });
+}
+
+async function applyInspectionSave(ctx: Ctx<'inspection.save'>): Promise<Outcome> {
+  const p = ctx.mutation.payload;
+  const appliance = await applianceAtSite(ctx.trx, ctx.visit, p.applianceId);
+  const inspection = await ensureInspection(ctx, p.applianceId);
+  await checkAnalyser(ctx, p.analyserId, 'analyserId');
+  let heat: { grossKw: number; netKw: number } | null = null;
+  if (p.meterTest) {
+    try {
+      heat = heatInputKw({ fuel: p.details.fuel, ...p.meterTest });
+    } catch (err) {
+      if (err instanceof CombustionInputError) throw new AppError('invalid_input', err.message, { [`meterTest.${err.field}`]: err.message });
+      throw err;
+    }
+  }
+
+  let conflict = false;
+  const update: Row = {
+    appliance_json: JSON.stringify(p.details),
+    details_confirmed: p.detailsConfirmed,
+    checklist_json: JSON.stringify(p.checklist),
+    spillage: p.spillage,
+    operating_pressure_mbar: p.operatingPressureMbar,
+    meter_test_json: p.meterTest ? JSON.stringify(p.meterTest) : null,
+    heat_input_gross_kw: heat?.grossKw ?? null,
+    heat_input_net_kw: heat?.netKw ?? null,
+    analyser_id: p.analyserId,
+    analyser_override_reason: p.analyserOverrideReason,
+    notes: p.notes,
+    not_tested_reason: p.notTestedReason,
+    updated_at: ctx.now,
+  };
+  if (!sameDetails(appliance, p.details)) {
+    const current = toIso(appliance.updated_at);
+    const ours = current !== null && (current === p.baseUpdatedAt || current === toIso(inspection.appliance_written_at));
+    if (ours) {
+      await ctx.trx('appliances').where({ id: p.applianceId }).update({ ...applianceColumns(p.details), updated_at: ctx.now });
+      update.appliance_written_at = ctx.now;
+    } else {
+      // The office edited the record since the device last saw it: keep the office's record, keep
+      // the engineer's version on the inspection (it is what was tested), and flag it once.
+      conflict = true;
+      const office = applianceDetailsFromRow(appliance);
+      const open = (await ctx.trx('sync_conflicts')
+        .where({ visit_id: ctx.visit.id, appliance_id: p.applianceId, kind: 'appliance_details', client_json: JSON.stringify(p.details) })
+        .whereNull('resolved_at')
+        .first()) as Row | undefined;
+      if (!open) await addConflict(ctx, { kind: 'appliance_details', applianceId: p.applianceId, server: office, client: p.details, summary: detailsSummary(office, p.details) });
+    }
+  }
+  await ctx.trx('inspections').where({ id: inspection.id }).update(update);
+  return { conflict };
+}
+
+const READING_FIELD: Record<string, string> = { coPpm: 'values.coPpm', co2Pct: 'values.co2Pct', o2Pct: 'values.o2Pct', flueTempC: 'values.flueTemp', airTempC: 'values.airTemp' };
+
+async function applyReading(ctx: Ctx<'reading.record'>): Promise<Outcome> {
+  const p = ctx.mutation.payload;
+  const inspection = await ensureInspection(ctx, p.applianceId);
+  const analyser = await checkAnalyser(ctx, p.analyserId, 'analyserId');
+  const values = canonicalReading(p.values);
+  const details = JSON.parse(String(inspection.appliance_json)) as ApplianceDetails;
+  const check = analyseReading(values, details.fuel);
+  if (check.error) {
+    const field = READING_FIELD[check.error.field] ?? check.error.field;
+    throw new AppError('invalid_input', check.error.message, { [field]: check.error.message });
+  }
+  if (await ctx.trx('readings').where({ id: p.readingId }).first()) throw new AppError('conflict', 'A reading with this id is already recorded.', { readingId: 'Already recorded' });
+
+  const existing: Row[] = await ctx.trx('readings').where({ inspection_id: inspection.id, test_point: p.testPoint });
+  let conflict = false;
+  if (p.replacesId !== null) {
+    const replaced = existing.find((r) => r.id === p.replacesId);
+    if (!replaced) throw new AppError('invalid_input', 'The reading being corrected is not at this test point.', { replacesId: 'No such reading at this test point' });
+    const alreadyReplaced = existing.find((r) => r.replaces_id === p.replacesId);
+    if (alreadyReplaced) {
+      conflict = true;
+      await addConflict(ctx, { kind: 'reading', applianceId: p.applianceId, server: { readingId: alreadyReplaced.id }, client: { readingId: p.readingId }, summary: `Two corrections of the same ${p.testPoint.replace('_', ' ')} reading; both are kept and both are judged.` });
+    }
+  } else {
+    const live = currentReadings(existing.map((r) => ({ id: String(r.id), replacesId: (r.replaces_id as string | null) ?? null, testPoint: String(r.test_point), takenAt: toIso(r.taken_at) ?? '', recordedBy: r.recorded_by })));
+    const someoneElse = live.find((r) => r.recordedBy !== ctx.user.id);
+    if (someoneElse) {
+      conflict = true;
+      await addConflict(ctx, { kind: 'reading', applianceId: p.applianceId, server: { readingId: someoneElse.id }, client: { readingId: p.readingId }, summary: `Another ${p.testPoint.replace('_', ' ')} reading was recorded by someone else; both are kept and both are judged.` });
+    }
+  }
+
+  await ctx.trx('readings').insert({
+    id: p.readingId,
+    organisation_id: ctx.user.organisationId,
+    inspection_id: inspection.id,
+    test_point: p.testPoint,
+    replaces_id: p.replacesId,
+    co_ppm: values.coPpm,
+    co2_pct: values.co2Pct,
+    o2_pct: values.o2Pct,
+    flue_temp_c: values.flueTempC,
+    air_temp_c: values.airTempC,
+    temp_unit: values.tempUnit,
+    analyser_id: p.analyserId,
+    taken_at: p.takenAt,
+    recorded_by: ctx.user.id,
+    created_at: ctx.now,
+  });
+  const warnings: string[] = [];
+  if (analyser && values.coPpm > Number(analyser.co_range_max_ppm)) {
+    warnings.push(`CO ${values.coPpm} ppm is above the analyser's range (${Number(analyser.co_range_max_ppm)} ppm): the true value may be higher.`);
+  }
+  return { conflict, warnings };
+}
+
+/** Upserts a row the device identifies by its own id; an id already used elsewhere is refused. */
+async function upsertOwned(ctx: Base, table: string, id: string, columns: Row): Promise<void> {
+  const existing = (await ctx.trx(table).where({ id }).first()) as Row | undefined;
+  if (existing && (existing.visit_id !== ctx.visit.id || existing.organisation_id !== ctx.user.organisationId)) {
+    throw new AppError('conflict', 'This id belongs to another record.', { id: 'Already used elsewhere' });
+  }
+  if (existing) await ctx.trx(table).where({ id }).update(columns);
+  else await ctx.trx(table).insert({ id, organisation_id: ctx.user.organisationId, visit_id: ctx.visit.id, created_at: ctx.now, ...columns });
+}
+
+async function optionalAppliance(ctx: Base, applianceId: string | null): Promise<void> {
+  if (applianceId !== null) await applianceAtSite(ctx.trx, ctx.visit, applianceId);
+}
+
+async function applySubmit(ctx: Ctx<'visit.submit'>): Promise<Outcome> {
+  const { trx, visit } = ctx;
+  const limits = ctx.prepared.limits!;
+  const timeZone = ctx.prepared.timeZone ?? 'UTC';
+  const records = await loadVisitRecords(trx, String(visit.id));
+  const applianceRows: Row[] = await trx('appliances').where({ site_id: visit.site_id, organisation_id: visit.organisation_id, active: true }).orderBy('created_at').orderBy('id');
+  const arrivedAt = toIso(visit.arrived_at) ?? ctx.mutation.at;
+  const date = localDate(arrivedAt, timeZone);
+
+  const appliances = applianceRows.map((a) => {
+    const inspection = records.inspections.find((i) => i.applianceId === a.id);
+    const details = inspection?.details ?? applianceDetailsFromRow(a);
+    return { applianceId: String(a.id), details, inspection, label: [details.location, details.make, details.model].filter(Boolean).join(' ') };
+  });
+  // The server recomputes from the raw readings: nothing the device worked out is trusted.
+  const verdicts = visitVerdicts({
+    appliances: appliances.map((a) => ({
+      applianceId: a.applianceId,
+      details: a.details,
+      spillage: a.inspection?.spillage ?? null,
+      readings: a.inspection?.readings ?? [],
+      notTestedReason: a.inspection?.notTestedReason ?? null,
+    })),
+    roomChecks: records.roomChecks,
+    tightness: records.tightness,
+    findings: records.findings,
+    makeSafe: records.makeSafe,
+    limits,
+    date,
+  });
+  const analyserRows: Row[] = await trx('analysers').where({ organisation_id: ctx.user.organisationId });
+  const blockers = submitBlockers({
+    appliances: appliances.map((a) => ({
+      applianceId: a.applianceId,
+      label: a.label,
+      readings: a.inspection?.readings ?? [],
+      notTestedReason: a.inspection?.notTestedReason ?? null,
+      analyserId: a.inspection?.analyserId ?? null,
+      analyserOverrideReason: a.inspection?.analyserOverrideReason ?? null,
+    })),
+    analysers: analyserRows.map((r) => ({ id: String(r.id), serial: String(r.serial), calibrationDue: toDateOnly(r.calibration_due) ?? '' })),
+    verdicts,
+    hasSignoff: records.signoff !== null,
+    date,
+  });
+  if (blockers.length > 0) {
+    throw new AppError('invalid_input', `The visit cannot be submitted yet: ${blockers.map((b) => b.message).join('; ')}`, Object.fromEntries(blockers.map((b) => [b.key, b.message])));
+  }
+
+  const client = ctx.mutation.payload.clientVerdicts;
+  const differences: Array<{ subject: string; applianceId: string | null; client: string; server: string }> = [];
+  for (const a of appliances) {
+    const result = verdicts.appliances[a.applianceId];
+    if (!a.inspection) continue;
+    const clientLevel = client.appliances[a.applianceId] ?? null;
+    await trx('inspections').where({ id: a.inspection.id }).update({
+      client_verdict: clientLevel,
+      verdict_of_record: result?.verdict.overall ?? null,
+      verdict_json: result ? JSON.stringify(result.verdict) : null,
+      limits_json: result ? JSON.stringify(result.resolved) : null,
+      verdict_at: ctx.now,
+    });
+    if (result && clientLevel !== null && clientLevel !== result.verdict.overall) differences.push({ subject: 'appliance', applianceId: a.applianceId, client: clientLevel, server: result.verdict.overall });
+  }
+  const installationLevel = verdicts.installation?.verdict.overall ?? null;
+  if (client.installation !== null && installationLevel !== null && client.installation !== installationLevel) {
+    differences.push({ subject: 'installation', applianceId: null, client: client.installation, server: installationLevel });
+  }
+  if (client.overall !== verdicts.overall) differences.push({ subject: 'visit', applianceId: null, client: client.overall, server: verdicts.overall });
+  for (const d of differences) {
+    await trx('verdict_discrepancies').insert({
+      id: newId(),
+      organisation_id: ctx.user.organisationId,
+      visit_id: visit.id,
+      appliance_id: d.applianceId,
+      subject: d.subject,
+      client_verdict: d.client,
+      server_verdict: d.server,
+      created_at: ctx.now,
+    });
+    console.warn(`[sync] verdict differs on visit ${String(visit.id)} (${d.subject}${d.applianceId ? ` ${d.applianceId}` : ''}): device said ${d.client}, server says ${d.server}; the server's stands`);
+  }
+
+  await trx('visits').where({ id: visit.id }).update({
+    status: 'submitted',
+    // The device's time of submitting, but never later than the server's clock.
+    submitted_at: ctx.mutation.at < ctx.now ? ctx.mutation.at : ctx.now,
+    submitted_by: ctx.user.id,
+    arrived_at: toIso(visit.arrived_at) ?? arrivedAt,
+    overall_verdict: verdicts.overall,
+    installation_verdict: installationLevel,
+    installation_verdict_json: verdicts.installation ? JSON.stringify(verdicts.installation.verdict) : null,
+    installation_limits_json: verdicts.installation ? JSON.stringify(verdicts.installation.resolved) : null,
+    updated_at: ctx.now,
+  });
+  return { warnings: differences.length ? ['The verdict was recomputed on the server and differs from the one on the device; the server’s is the verdict of record.'] : [] };
+}
+
+async function applyOne(ctx: Ctx): Promise<Outcome> {
+  const m = ctx.mutation;
+  switch (m.kind) {
+    case 'visit.arrive':
+      return {};
+    case 'appliance.add': {
+      const existing = (await ctx.trx('appliances').where({ id: m.payload.applianceId }).first()) as Row | undefined;
+      if (existing && existing.site_id !== ctx.visit.site_id) throw new AppError('conflict', 'This appliance id belongs to another site.', { applianceId: 'Already used elsewhere' });
+      if (!existing) {
+        await ctx.trx('appliances').insert({
+          id: m.payload.applianceId,
+          organisation_id: ctx.user.organisationId,
+          site_id: ctx.visit.site_id,
+          ...applianceColumns(m.payload.details),
+          active: true,
+          created_at: ctx.now,
+          updated_at: ctx.now,
+        });
+      }
+      return {};
+    }
+    case 'inspection.save':
+      return applyInspectionSave(ctx as unknown as Ctx<'inspection.save'>);
+    case 'reading.record':
+      return applyReading(ctx as unknown as Ctx<'reading.record'>);
+    case 'roomCheck.save': {
+      const p = m.payload;
+      await upsertOwned(ctx, 'room_checks', p.roomCheckId, { room: p.room, co_ppm: p.coPpm, minutes: p.minutes, taken_at: p.takenAt, deleted_at: null });
+      return {};
+    }
+    case 'roomCheck.remove':
+      await ctx.trx('room_checks').where({ id: m.payload.roomCheckId, visit_id: ctx.visit.id }).update({ deleted_at: ctx.now });
+      return {};
+    case 'tightness.save': {
+      const p = m.payload;
+      await upsertOwned(ctx, 'tightness_tests', p.tightnessId, { start_mbar: p.startMbar, end_mbar: p.endMbar, duration_min: p.durationMin, taken_at: p.takenAt, deleted_at: null });
+      // One tightness test counts per visit: a new one replaces the earlier (kept, marked deleted).
+      await ctx.trx('tightness_tests').where({ visit_id: ctx.visit.id }).whereNot({ id: p.tightnessId }).whereNull('deleted_at').update({ deleted_at: ctx.now });
+      return {};
+    }
+    case 'finding.save': {
+      const p = m.payload;
+      await optionalAppliance(ctx, p.applianceId);
+      await upsertOwned(ctx, 'findings', p.findingId, { appliance_id: p.applianceId, severity: p.severity, description: p.description, action: p.action, recorded_at: p.recordedAt, deleted_at: null });
+      return {};
+    }
+    case 'finding.remove':
+      await ctx.trx('findings').where({ id: m.payload.findingId, visit_id: ctx.visit.id }).update({ deleted_at: ctx.now });
+      return {};
+    case 'makeSafe.save': {
+      const p = m.payload;
+      await optionalAppliance(ctx, p.applianceId);
+      await upsertOwned(ctx, 'make_safe_records', p.makeSafeId, {
+        appliance_id: p.applianceId,
+        made_safe_by: p.madeSafeBy,
+        occupant_warned: p.occupantWarned,
+        consent: p.consent,
+        occupant_name: p.occupantName,
+        refusal_note: p.refusalNote,
+        warning_notice_left: p.warningNoticeLeft,
+        notes: p.notes,
+        recorded_at: p.recordedAt,
+      });
+      return {};
+    }
+    case 'signoff.save': {
+      const p = m.payload;
+      const signature = ctx.prepared.signature;
+      if (signature) {
+        await ctx.trx('photos').insert({
+          id: signature.photoId,
+          organisation_id: ctx.user.organisationId,
+          visit_id: ctx.visit.id,
+          purpose: 'signature',
+          storage_key: signature.key,
+          mime: signature.image.mime,
+          bytes: signature.image.bytes.length,
+          width: signature.image.width,
+          height: signature.image.height,
+          sha256: sha256(signature.image.bytes),
+          uploaded_by: ctx.user.id,
+          taken_at: p.signedAt,
+          created_at: ctx.now,
+        });
+      }
+      const columns = {
+        organisation_id: ctx.user.organisationId,
+        occupant_name: p.occupantName,
+        signature_photo_id: signature?.photoId ?? null,
+        no_signature_reason: signature ? null : p.noSignatureReason,
+        signed_at: p.signedAt,
+        declaration_text: p.declarationText,
+        engineer_id: ctx.user.id,
+        declared_at: p.signedAt,
+      };
+      const existing = await ctx.trx('visit_signoffs').where({ visit_id: ctx.visit.id }).first();
+      if (existing) await ctx.trx('visit_signoffs').where({ visit_id: ctx.visit.id }).update(columns);
+      else await ctx.trx('visit_signoffs').insert({ visit_id: ctx.visit.id, created_at: ctx.now, ...columns });
+      return {};
+    }
+    case 'visit.noAccess':
+      await ctx.trx('visits').where({ id: ctx.visit.id }).update({ status: 'no_access', no_access_at: m.payload.at, no_access_note: m.payload.note, submitted_by: ctx.user.id, updated_at: ctx.now });
+      return {};
+    case 'visit.submit':
+      return applySubmit(ctx as unknown as Ctx<'visit.submit'>);
+  }
+}
+
+function sha256(bytes: Uint8Array): string {
+  return createHash('sha256').update(bytes).digest('hex');
+}
+
+async function prepare(user: SyncUser, mutation: Mutation, visit: Row): Promise<Prepared> {
+  if (mutation.kind === 'visit.submit') {
+    const limits = await loadLimitContextForSite({ organisationId: user.organisationId, siteId: String(visit.site_id) });
+    return { limits: { chain: limits.chain, orgDefault: limits.orgDefault }, timeZone: await getOrganisationTimeZone(db(), user.organisationId) };
+  }
+  if (mutation.kind === 'signoff.save' && mutation.payload.signaturePng) {
+    const base64 = mutation.payload.signaturePng.slice(mutation.payload.signaturePng.indexOf(',') + 1);
+    let image: CleanImage;
+    try {
+      image = await cleanImage(Buffer.from(base64, 'base64'), { keepPng: true });
+    } catch (err) {
+      if (err instanceof AppError) throw new AppError('invalid_input', 'The signature could not be read; ask for it again.', { signaturePng: 'Not a readable PNG image' });
+      throw err;
+    }
+    // Named after the mutation, so a resend overwrites the same file rather than adding one.
+    const key = `${user.organisationId}/${String(visit.id)}/signature-${mutation.id}.png`;
+    await fileStore().put(key, image.bytes);
+    return { signature: { photoId: mutation.id, key, image } };
+  }
+  return {};
+}
+
+type Stored = { user_id: string; organisation_id: string; result_json: string | null };
+
+function duplicateResult(id: string, user: SyncUser, row: Stored): MutationResult {
+  if (row.user_id !== user.id || row.organisation_id !== user.organisationId) {
+    return rejected(id, new AppError('conflict', 'This mutation id was already used by another account.'));
+  }
+  const earlier = row.result_json ? (JSON.parse(row.result_json) as Outcome) : {};
+  return { id, status: 'duplicate', ...(earlier.conflict ? { conflict: true } : {}) };
+}
+
+async function applyItem(user: SyncUser, item: unknown, index: number): Promise<MutationResult> {
+  const rawId = item && typeof item === 'object' && typeof (item as { id?: unknown }).id === 'string' ? (item as { id: string }).id : `#${index}`;
+  const parsed = mutationSchema.safeParse(item);
+  if (!parsed.success) return rejected(rawId, new AppError('invalid_input', 'Some fields are not valid.', payloadFields(parsed.error.issues)));
+  const mutation = parsed.data;
+  const knex = db();
+  try {
+    const seen = (await knex('sync_mutations').where({ id: mutation.id }).first()) as Stored | undefined;
+    if (seen) return duplicateResult(mutation.id, user, seen);
+    const visit = await visitFor(knex, user, mutation.visitId);
+    const prepared = await prepare(user, mutation, visit);
+
+    const outcome = await knex.transaction(async (trx) => {
+      // Checked again inside the transaction: the acknowledgement is only ever for a committed change.
+      const again = (await trx('sync_mutations').where({ id: mutation.id }).first()) as Stored | undefined;
+      if (again) return { duplicate: again, result: null };
+      const current = await visitFor(trx, user, mutation.visitId);
+      if (!OPEN_STATUSES.includes(String(current.status))) {
+        throw new AppError('conflict', `This visit is ${String(current.status).replace('_', ' ')}; it can no longer be changed from the field.`);
+      }
+      const now = nowIso();
+      if (current.status === 'booked' && mutation.kind !== 'visit.noAccess') {
+        const arrivedAt = mutation.kind === 'visit.arrive' ? mutation.payload.arrivedAt : mutation.at;
+        await trx('visits').where({ id: current.id }).update({ status: 'on_site', arrived_at: arrivedAt, updated_at: now });
+        current.arrived_at = arrivedAt;
+      }
+      const result = await applyOne({ trx, user, visit: current, mutation, prepared, now });
+      await trx('sync_mutations').insert({
+        id: mutation.id,
+        organisation_id: user.organisationId,
+        user_id: user.id,
+        visit_id: mutation.visitId,
+        kind: mutation.kind,
+        result_json: JSON.stringify(result),
+        client_at: mutation.at,
+        applied_at: now,
+      });
+      return { duplicate: null, result };
+    });
+    if (outcome.duplicate) return duplicateResult(mutation.id, user, outcome.duplicate);
+    return {
+      id: mutation.id,
+      status: 'applied',
+      ...(outcome.result?.conflict ? { conflict: true } : {}),
+      ...(outcome.result?.warnings?.length ? { warnings: outcome.result.warnings } : {}),
+    };
+  } catch (err) {
+    if (err instanceof AppError) return rejected(mutation.id, err);
+    // The same mutation committed by a concurrent request (another tab, a retried request) between
+    // our check and our insert: it was applied once, by the other.
+    const raced = (await knex('sync_mutations').where({ id: mutation.id }).first().catch(() => undefined)) as Stored | undefined;
+    if (raced) return duplicateResult(mutation.id, user, raced);
+    console.error('[sync] mutation failed', mutation.id, mutation.kind, err);
+    return rejected(mutation.id, new AppError('internal', 'The server could not apply this change; it will be sent again.'));
+  }
+}
+
+/** Applies a batch in order; one result per item, each acknowledged only after its commit. */
+export async function applySyncBatch(input: { user: SyncUser; items: readonly unknown[] }): Promise<MutationResult[]> {
+  const results: MutationResult[] = [];
+  for (let i = 0; i < input.items.length; i++) results.push(await applyItem(input.user, input.items[i], i));
+  return results;
+}
