@@ -1,6 +1,6 @@
 // The price list's vocabulary and how a visit becomes draft invoice lines. Pure: the raise-invoice
 // form previews with it and the server writes with it.
-import { APPLIANCE_CATEGORIES, APPLIANCE_CATEGORY_LABELS, type ApplianceCategory } from '@/lib/limits/types';
+import { APPLIANCE_CATEGORIES, APPLIANCE_CATEGORY_LABELS, type ApplianceCategory } from '../limits/types';
 
 export const PRICE_KINDS = ['visit', 'appliance', 'extra'] as const;
 export type PriceKind = (typeof PRICE_KINDS)[number];
