@@ -1,16 +1,18 @@
 // Next.js settings for Hearthmark. Edit when a server-only package needs bundling rules
 // or a response header changes for every page.
 
-/** Security headers sent with every response; the camera is allowed only to our own field app. */
+/** Security headers sent with every response. The camera is allowed only under /field (photos), below. */
 const securityHeaders = [
   { key: 'X-Content-Type-Options', value: 'nosniff' },
   { key: 'Referrer-Policy', value: 'strict-origin-when-cross-origin' },
   { key: 'X-Frame-Options', value: 'DENY' },
-  { key: 'Permissions-Policy', value: 'camera=(self), microphone=(), geolocation=(), payment=()' },
+  { key: 'Permissions-Policy', value: 'camera=(), microphone=(), geolocation=(), payment=()' },
   {
     key: 'Content-Security-Policy',
     value: [
       "default-src 'self'",
+      // Next's App Router streams its payload in inline scripts; nonces would force every page to
+      // render dynamically, so inline scripts stay allowed while everything else is locked to self.
       "script-src 'self' 'unsafe-inline'",
       "style-src 'self' 'unsafe-inline'",
       "img-src 'self' data: blob:",
@@ -35,7 +37,12 @@ const nextConfig = {
   typescript: { ignoreBuildErrors: true },
   experimental: { authInterrupts: true },
   async headers() {
-    return [{ source: '/:path*', headers: securityHeaders }];
+    return [
+      { source: '/:path*', headers: securityHeaders },
+      // Later entries win for the same header: the field app may open the camera for photos.
+      { source: '/field/:path*', headers: [{ key: 'Permissions-Policy', value: 'camera=(self), microphone=(), geolocation=(), payment=()' }] },
+      { source: '/field', headers: [{ key: 'Permissions-Policy', value: 'camera=(self), microphone=(), geolocation=(), payment=()' }] },
+    ];
   },
 };
 

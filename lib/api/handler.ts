@@ -6,6 +6,7 @@ import { ZodError, type ZodType } from 'zod';
 import { AppError, errorBody, fieldsFromIssues } from '@/lib/errors';
 import { requireRole, type SessionUser } from '@/lib/auth/session';
 import type { Role } from '@/lib/auth/roles';
+import { env } from '@/lib/env';
 
 type Ctx<P> = { req: Request; user: SessionUser; params: P };
 type Handler<P> = (ctx: Ctx<P>) => Promise<Response | unknown>;
@@ -25,9 +26,32 @@ export function toErrorResponse(err: unknown): NextResponse {
   return NextResponse.json(errorBody(new AppError('internal', 'Something went wrong on our side. Nothing was changed.')), { status: 500 });
 }
 
+const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * Cross-site request refusal for cookie-authenticated writes. Browsers send Origin on every
+ * cross-origin POST/PUT/PATCH/DELETE (and Sec-Fetch-Site); a write whose origin is not this app
+ * is refused before anything runs. Non-browser clients (scripts, integrators) send neither.
+ */
+export function assertSameOrigin(req: Request): void {
+  if (!UNSAFE_METHODS.has(req.method.toUpperCase())) return;
+  const origin = req.headers.get('origin');
+  const site = req.headers.get('sec-fetch-site');
+  if (site === 'cross-site') throw new AppError('forbidden', 'Cross-site request refused.');
+  if (!origin) return;
+  const allowed = new Set([new URL(env().NEXTAUTH_URL).origin, new URL(req.url).origin]);
+  const host = req.headers.get('host');
+  if (host) {
+    allowed.add(`http://${host}`);
+    allowed.add(`https://${host}`);
+  }
+  if (!allowed.has(origin)) throw new AppError('forbidden', 'Cross-site request refused.');
+}
+
 export function apiRoute<P = Record<string, never>>(roles: readonly Role[], handler: Handler<P>) {
   return async (req: Request, context: { params: Promise<P> }): Promise<Response> => {
     try {
+      assertSameOrigin(req);
       const user = await requireRole(roles);
       const params = (await context?.params) ?? ({} as P);
       const result = await handler({ req, user, params });
