@@ -59,3 +59,20 @@ export async function recreatePgDatabase(databaseUrl: string): Promise<void> {
     await admin.destroy();
   }
 }
+
+/**
+ * A consistent online copy of the SQLite database through the driver's backup API: readers and
+ * writers carry on while it runs, and the copy is a single point-in-time snapshot.
+ */
+export async function backupSqlite(knex: Knex, destination: string): Promise<{ pages: number }> {
+  if (String(knex.client.config.client) === 'pg') {
+    throw new Error('backup: on PostgreSQL use pg_dump (or your provider’s snapshots); this command copies the SQLite file');
+  }
+  const conn = (await knex.client.acquireConnection()) as { backup: (file: string) => Promise<{ totalPages: number }> };
+  try {
+    const result = await conn.backup(destination);
+    return { pages: result.totalPages };
+  } finally {
+    await knex.client.releaseConnection(conn);
+  }
+}
