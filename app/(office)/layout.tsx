@@ -7,6 +7,7 @@ export default async function OfficeLayout({ children }: { children: React.React
   const nav = [
     { href: '/office', label: 'Overview' },
     { href: '/office/sites', label: 'Sites' },
+    { href: '/office/limits', label: 'Limits' },
     ...(env().MAIL_FAKE_URL ? [{ href: '/office/mailbox', label: 'Test mailbox' }] : []),
   ];
   return (
