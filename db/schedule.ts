@@ -290,3 +290,9 @@ export async function listFeedVisits(organisationId: string, engineerId: string)
   const rows = await visitQuery(db(), organisationId).andWhere('v.engineer_id', engineerId).andWhere('v.window_start', '>=', from).andWhere('v.window_start', '<', to).orderBy('v.window_start');
   return rows.map(toBoardVisit);
 }
+
+/** Site choices for the booking form (reference and address), capped for a select box. */
+export async function listSiteChoices(organisationId: string): Promise<Array<{ id: string; label: string }>> {
+  const rows = await db()('sites').where({ organisation_id: organisationId }).select('id', 'reference', 'address_line1', 'town').orderBy('reference').limit(2000);
+  return rows.map((r: Record<string, unknown>) => ({ id: String(r.id), label: `${r.reference} · ${r.address_line1}, ${r.town}` }));
+}

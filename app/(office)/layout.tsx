@@ -6,7 +6,13 @@ export default async function OfficeLayout({ children }: { children: React.React
   const user = await requirePageRole(['office']);
   const nav = [
     { href: '/office', label: 'Overview' },
+    { href: '/office/board', label: 'Board' },
     { href: '/office/sites', label: 'Sites' },
+    { href: '/office/customers', label: 'Customers' },
+    { href: '/office/renewals', label: 'Renewals' },
+    { href: '/office/analysers', label: 'Analysers' },
+    { href: '/office/users', label: 'Staff' },
+    { href: '/office/audit', label: 'Audit log' },
     { href: '/office/limits', label: 'Limits' },
     ...(env().MAIL_FAKE_URL ? [{ href: '/office/mailbox', label: 'Test mailbox' }] : []),
   ];

@@ -27,6 +27,8 @@ export type OutgoingMail = {
   text: string;
   html?: string;
   attachments?: Array<{ filename: string; content: Buffer; contentType: string }>;
+  /** A fixed Message-ID lets a resend be recognised as the same message (reminder outbox). */
+  messageId?: string;
 };
 
 export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string }> {

@@ -1,0 +1,14 @@
+import { apiRoute } from '@/lib/api/handler';
+import { AppError } from '@/lib/errors';
+import { idSchema } from '@/lib/validations/list-query';
+import { getOpenVisitReturn, isVisitAssignedTo } from '@/db/certificates';
+
+export const runtime = 'nodejs';
+
+// The office's comment on a visit it sent back, for the engineer to act on (null when none is open).
+export const GET = apiRoute<{ id: string }>(['engineer', 'office'], async ({ user, params }) => {
+  const visitId = idSchema.safeParse(params.id);
+  if (!visitId.success) throw new AppError('not_found', 'No such visit.');
+  if (user.role === 'engineer' && !(await isVisitAssignedTo({ organisationId: user.organisationId, visitId: visitId.data, engineerId: user.id }))) throw new AppError('not_found', 'No such visit.');
+  return { returned: await getOpenVisitReturn({ organisationId: user.organisationId, visitId: visitId.data }) };
+});
