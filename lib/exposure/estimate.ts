@@ -1,7 +1,7 @@
 // The exposure estimate for one room check: COHb after the measured time and after 1 h and 8 h at
 // the measured level, for each activity preset, beside the ambient limits it exceeds. An estimate
 // for a typical adult, never a diagnosis of anyone in the room.
-import { findResolved, trips, type Comparator, type ResolvedLimits } from '../limits';
+import { findResolved, resolveLimits, trips, type Comparator, type JurisdictionLevel, type ResolvedLimits } from '../limits';
 import { BASELINE_COHB_PCT, CFK_PRESETS, cohbAfter, cfkConstants, steadyStateCohbPct, type ActivityPreset } from './cfk';
 import { OTHER_LIMITS, WHO_LIMITS, symptomBandFor, type AmbientLimit, type SymptomBand } from './ambient';
 
@@ -48,6 +48,15 @@ export function jurisdictionRoomLimit(resolved: ResolvedLimits): JurisdictionRoo
   const decided = findResolved(resolved, 'room_co_ppm', null)?.decided;
   if (!decided) return null;
   return { jurisdictionName: decided.jurisdictionName, serviceAtPpm: decided.serviceAt, dangerAtPpm: decided.dangerAt, comparator: decided.comparator, source: decided.source };
+}
+
+/**
+ * The room CO rule in force on a date from a site's limit context (as cached by the field app).
+ * Room CO is judged for the installation, not one appliance, so the appliance key is neutral:
+ * a room rule scoped to a category would not be picked here.
+ */
+export function jurisdictionRoomLimitOn(input: { chain: JurisdictionLevel[]; orgDefault: JurisdictionLevel | null; date: string }): JurisdictionRoomLimit | null {
+  return jurisdictionRoomLimit(resolveLimits({ chain: input.chain, orgDefault: input.orgDefault, appliance: { category: 'other', fuel: 'natural-gas' }, date: input.date }));
 }
 
 function point(input: { coPpm: number; minutes: number; startCohbPct: number; activity: ActivityPreset }): ExposurePoint {
