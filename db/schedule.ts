@@ -232,7 +232,11 @@ export async function listOpenFindings(organisationId: string, visitId: string):
   if (!(await knex.schema.hasTable('findings'))) return null;
   const visit = await knex('visits').where({ id: visitId, organisation_id: organisationId }).first('id');
   if (!visit) return [];
-  const rows = await knex('findings').where({ visit_id: visitId }).whereNull('resolved_at').select('id', 'visit_id', 'severity', 'description');
+  // The field app's table marks removal with deleted_at; resolved_at is honoured where present.
+  const q = knex('findings').where({ visit_id: visitId }).select('id', 'visit_id', 'severity', 'description');
+  if (await knex.schema.hasColumn('findings', 'deleted_at')) q.whereNull('deleted_at');
+  if (await knex.schema.hasColumn('findings', 'resolved_at')) q.whereNull('resolved_at');
+  const rows = await q;
   return rows.map((r: Record<string, unknown>) => ({ id: String(r.id), visitId: String(r.visit_id), severity: String(r.severity), description: String(r.description) }));
 }
 
