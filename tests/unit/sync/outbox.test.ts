@@ -51,7 +51,7 @@ function fakeServer(options: { reject?: Set<string> } = {}) {
   const applied: string[] = [];
   const requests: Array<{ url: string; ids: string[] }> = [];
   let mode: 'ok' | 'offline' | 'drop-after-apply' | 'signed-out' | 'hang' = 'ok';
-  const fetch = (async (url: string | URL | Request, init?: RequestInit) => {
+  const fetch: typeof globalThis.fetch = (async (url: string | URL | Request, init?: RequestInit) => {
     if (mode === 'offline') throw new TypeError('Failed to fetch');
     if (mode === 'hang') return new Promise<Response>(() => undefined);
     if (mode === 'signed-out') return new Response(JSON.stringify({ error: { code: 'unauthorized', message: 'Sign in' } }), { status: 401 });
@@ -75,7 +75,7 @@ function fakeServer(options: { reject?: Set<string> } = {}) {
     // The server committed, but the answer never reached the phone.
     if (mode === 'drop-after-apply') throw new TypeError('Connection reset');
     return new Response(JSON.stringify({ results }), { status: 200, headers: { 'content-type': 'application/json' } });
-  }) as typeof fetch;
+  }) as typeof globalThis.fetch;
   return { fetch, applied, requests, setMode: (m: typeof mode) => (mode = m) };
 }
 
