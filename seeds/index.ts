@@ -4,7 +4,7 @@ import type { Knex } from 'knex';
 import { resetData } from '../db/maintenance';
 import * as core from './01-demo-core';
 import * as limits from './02-demo-limits';
-import * as insight from './07-demo-insight';
+import * as office from './04-demo-office';
 import * as billing from './06-demo-billing';
 
 type SeedPart = { seed: (knex: Knex) => Promise<void> };
@@ -14,7 +14,7 @@ export const DEMO_SEEDS: Array<[string, SeedPart]> = (
   [
     ['01-demo-core', core],
     ['02-demo-limits', limits],
-    ['07-demo-insight', insight],
+    ['04-demo-office', office],
     ['06-demo-billing', billing],
   ] as Array<[string, SeedPart]>
 ).sort(([a], [b]) => a.localeCompare(b));
