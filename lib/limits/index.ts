@@ -3,7 +3,7 @@
 export * from './types';
 export { VERDICT_ORDER, verdictRank, worstLevel, trips } from './levels';
 export { isIsoDate } from './dates';
-export { resolveLimits, findResolved, versionInForce, scopeMatches, scopeSpecificity, limitSlots } from './resolve';
+export { resolveLimits, createLimitResolver, findResolved, versionInForce, scopeMatches, scopeSpecificity, limitSlots, type LimitResolver } from './resolve';
 export { judge } from './judge';
 export { PRESETS, MEMORY_NOTE, getPreset, applyPreset, type LimitPreset, type PresetRule } from './presets';
 export { checkRule, checkProfileVersion, type RuleFieldError } from './validate';

@@ -1,4 +1,5 @@
 import { trips, verdictRank, worstLevel } from './levels';
+import { formatNumber } from './format';
 import { findResolved } from './resolve';
 import {
   CO_READING_METRICS,
@@ -24,10 +25,6 @@ import {
 
 const MANUFACTURER_SOURCE = "manufacturer's instructions";
 
-/** Trims float noise for display without hiding real digits (0.0092 stays 0.0092). */
-function formatNumber(value: number): string {
-  return String(Number(value.toPrecision(6)));
-}
 
 /** A label inside a sentence: "air-free CO", but "CO/CO2 ratio" keeps its capitals. */
 function inSentence(metric: Metric): string {
@@ -47,10 +44,42 @@ function whereText(testPoint: TestPoint | null, subject: string | null, minutes:
   return '';
 }
 
-function ruleText(rule: ResolvedRule): string {
+interface RuleTexts {
+  citation: string;
+  service: string | null;
+  danger: string | null;
+}
+
+// Resolved rules are shared by every verdict judged against the same resolution (see
+// createLimitResolver), so a rule's citation and threshold wording are built once per rule
+// rather than once per judged value. Only frozen rules are remembered: an unfrozen one could
+// be edited between two verdicts.
+const ruleTextCache = new WeakMap<ResolvedRule, RuleTexts>();
+
+function textsFor(rule: ResolvedRule): RuleTexts {
+  const cached = ruleTextCache.get(rule);
+  if (cached !== undefined) return cached;
   const name = rule.profileName ? `${rule.profileName} (${rule.jurisdictionName})` : `${rule.jurisdictionName} code`;
   const origin = rule.fromOrgDefault ? `organisation default ${name}` : name;
-  return `rule from ${origin}, v${rule.version}, source: ${rule.source}`;
+  const texts: RuleTexts = {
+    citation: `rule from ${origin}, v${rule.version}, source: ${rule.source}`,
+    service: rule.serviceAt === null ? null : withUnit(rule.metric, rule.serviceAt),
+    danger: rule.dangerAt === null ? null : withUnit(rule.metric, rule.dangerAt),
+  };
+  if (Object.isFrozen(rule)) ruleTextCache.set(rule, texts);
+  return texts;
+}
+
+function ruleText(rule: ResolvedRule): string {
+  return textsFor(rule).citation;
+}
+
+/** The threshold with its unit; the code's own thresholds come from the per-rule cache. */
+function thresholdText(metric: Metric, limit: EffectiveLimit, reported: Threshold): string {
+  if (reported.fromManufacturer || limit.rule === null) return withUnit(metric, reported.value);
+  const texts = textsFor(limit.rule);
+  const text = reported.kind === 'service' ? texts.service : texts.danger;
+  return text ?? withUnit(metric, reported.value);
 }
 
 interface Threshold {
@@ -147,7 +176,26 @@ function baseItem(s: Subject): Omit<VerdictItem, 'level' | 'explanation'> {
 }
 
 function unknownItem(s: Subject, explanation: string): VerdictItem {
-  return { ...baseItem(s), level: 'unknown', explanation };
+  // Written out rather than spread from baseItem: built for every value no limit covers.
+  return {
+    metric: s.metric,
+    testPoint: s.testPoint,
+    subject: s.subject,
+    value: s.value,
+    threshold: null,
+    thresholdKind: null,
+    comparator: null,
+    ruleId: null,
+    profileId: null,
+    version: null,
+    jurisdictionId: null,
+    jurisdictionName: null,
+    source: null,
+    fromManufacturer: false,
+    airFreeRoute: s.airFreeRoute,
+    level: 'unknown',
+    explanation,
+  };
 }
 
 function noLimitText(s: Subject): string {
@@ -178,7 +226,6 @@ function judgeValue(s: Subject, limit: EffectiveLimit): VerdictItem {
     reported = (limit.service ?? limit.danger)!;
   }
 
-  const thresholdText = withUnit(s.metric, reported.value);
   let sentence: string;
   if (s.metric === 'spillage') {
     const outcome = s.value >= 1 ? 'failed' : 'passed';
@@ -195,12 +242,17 @@ function judgeValue(s: Subject, limit: EffectiveLimit): VerdictItem {
         : limit.comparator === 'gt'
           ? 'is above'
           : 'is at or above';
-    sentence = `${subjectText(s)} ${relation} the ${reported.kind} level ${thresholdText}`;
+    sentence = `${subjectText(s)} ${relation} the ${reported.kind} level ${thresholdText(s.metric, limit, reported)}`;
   }
 
   const rule = limit.rule;
+  // Written out rather than spread from baseItem: this literal is built for every judged value.
   return {
-    ...baseItem(s),
+    metric: s.metric,
+    testPoint: s.testPoint,
+    subject: s.subject,
+    value: s.value,
+    airFreeRoute: s.airFreeRoute,
     level,
     threshold: reported.value,
     thresholdKind: reported.kind,
@@ -263,6 +315,7 @@ function judgeReadings(input: JudgeInput, items: VerdictItem[], notJudged: NotJu
     // A reading whose CO met no limit at all is unknown; once some CO measure was judged, a
     // figure the limits do not cover (air-free CO under a ratio-only code) is listed, not scored.
     const coJudged = judged.some((item) => (CO_READING_METRICS as readonly Metric[]).includes(item.metric) && item.level !== 'unknown');
+    const judgedInOrder = judged.length;
     for (const s of unlimited) {
       if ((CO_READING_METRICS as readonly Metric[]).includes(s.metric) && !coJudged) {
         judged.push(unknownItem(s, noLimitText(s)));
@@ -275,17 +328,22 @@ function judgeReadings(input: JudgeInput, items: VerdictItem[], notJudged: NotJu
         });
       }
     }
-    judged.sort((a, b) => READING_METRICS.indexOf(a.metric as ReadingMetric) - READING_METRICS.indexOf(b.metric as ReadingMetric));
+    // The loop above pushed in READING_METRICS order; only unknowns appended since need placing.
+    if (judged.length > judgedInOrder) {
+      judged.sort((a, b) => READING_METRICS.indexOf(a.metric as ReadingMetric) - READING_METRICS.indexOf(b.metric as ReadingMetric));
+    }
     items.push(...judged);
   }
 
+  // Checked first: almost every inspection has a judged reading, and then the scan below is moot.
+  const anyReadingItem = items.some((item) => (READING_METRICS as readonly Metric[]).includes(item.metric));
+  if (anyReadingItem) return;
   const limitedMetrics = READING_METRICS.filter(
     (metric) =>
       manufacturerFigure(input.manufacturer, metric) !== null ||
       input.resolved.entries.some((entry) => entry.metric === metric && entry.decided !== null),
   );
-  const anyReadingItem = items.some((item) => (READING_METRICS as readonly Metric[]).includes(item.metric));
-  if (limitedMetrics.length > 0 && !anyReadingItem) {
+  if (limitedMetrics.length > 0) {
     const names = limitedMetrics.map(inSentence).join(', ');
     items.push({
       ...baseItem({ metric: limitedMetrics[0]!, testPoint: null, subject: null, minutes: null, value: 0, airFreeRoute: null }),

@@ -19,10 +19,42 @@ import {
   type TestPoint,
 } from './types';
 
-interface LevelInForce {
+/** One profile version with its rules grouped by metric, so a slot never scans every rule. */
+interface IndexedVersion {
+  version: ProfileVersion;
+  byMetric: ReadonlyMap<Metric, readonly LimitRule[]>;
+}
+
+/** One level of the chain, indexed once and reused for every slot, appliance and date. */
+interface IndexedLevel {
   level: JurisdictionLevel;
   fromOrgDefault: boolean;
-  inForce: ProfileVersion | null;
+  versions: readonly IndexedVersion[];
+}
+
+interface LevelInForce {
+  indexed: IndexedLevel;
+  inForce: IndexedVersion | null;
+}
+
+const NO_RULES: readonly LimitRule[] = [];
+
+function indexVersion(version: ProfileVersion): IndexedVersion {
+  const byMetric = new Map<Metric, LimitRule[]>();
+  for (const rule of version.rules) {
+    const list = byMetric.get(rule.metric);
+    if (list) list.push(rule);
+    else byMetric.set(rule.metric, [rule]);
+  }
+  return { version, byMetric };
+}
+
+function indexLevels(chain: readonly JurisdictionLevel[], orgDefault: JurisdictionLevel | null): IndexedLevel[] {
+  const levels = [
+    ...chain.map((level) => ({ level, fromOrgDefault: false })),
+    ...(orgDefault ? [{ level: orgDefault, fromOrgDefault: true }] : []),
+  ];
+  return levels.map(({ level, fromOrgDefault }) => ({ level, fromOrgDefault, versions: level.versions.map(indexVersion) }));
 }
 
 /**
@@ -70,7 +102,7 @@ export function limitSlots(): Array<{ metric: Metric; testPoint: TestPoint | nul
   return slots;
 }
 
-function toResolved(rule: LimitRule, version: ProfileVersion, level: LevelInForce): ResolvedRule {
+function toResolved(rule: LimitRule, version: ProfileVersion, level: IndexedLevel): ResolvedRule {
   // Copied field by field so the result is plain JSON and never aliases the caller's objects.
   return {
     ruleId: rule.id,
@@ -92,7 +124,7 @@ function toResolved(rule: LimitRule, version: ProfileVersion, level: LevelInForc
   };
 }
 
-function passed(rule: LimitRule, version: ProfileVersion, level: LevelInForce, reason: PassOverReason): PassedOverRule {
+function passed(rule: LimitRule, version: ProfileVersion, level: IndexedLevel, reason: PassOverReason): PassedOverRule {
   return { ...toResolved(rule, version, level), reason };
 }
 
@@ -106,41 +138,42 @@ function resolveSlot(
   let decided: ResolvedRule | null = null;
   const passedOver: PassedOverRule[] = [];
 
-  for (const level of levels) {
-    const version = level.inForce;
-    if (version !== null) {
-      const forMetric = version.rules.filter((rule) => rule.metric === metric);
+  for (const { indexed, inForce } of levels) {
+    if (inForce !== null) {
+      const version = inForce.version;
+      const forMetric = inForce.byMetric.get(metric) ?? NO_RULES;
       const inScope = forMetric.filter((rule) => scopeMatches(rule.scope, appliance, testPoint));
 
       if (decided !== null) {
-        for (const rule of inScope) passedOver.push(passed(rule, version, level, 'less_local'));
+        for (const rule of inScope) passedOver.push(passed(rule, version, indexed, 'less_local'));
       } else if (inScope.length > 0) {
         // Most specific wins; on a tie the first-defined rule wins (strict > keeps the earlier one).
         let winner = inScope[0]!;
         for (const rule of inScope) {
           if (scopeSpecificity(rule.scope) > scopeSpecificity(winner.scope)) winner = rule;
         }
-        decided = toResolved(winner, version, level);
+        decided = toResolved(winner, version, indexed);
         const winnerSpecificity = scopeSpecificity(winner.scope);
         for (const rule of inScope) {
           if (rule === winner) continue;
           const reason = scopeSpecificity(rule.scope) < winnerSpecificity ? 'less_specific' : 'later_defined';
-          passedOver.push(passed(rule, version, level, reason));
+          passedOver.push(passed(rule, version, indexed, reason));
         }
       }
 
       if (includeOutOfScope) {
         for (const rule of forMetric) {
-          if (!inScope.includes(rule)) passedOver.push(passed(rule, version, level, 'out_of_scope'));
+          if (!inScope.includes(rule)) passedOver.push(passed(rule, version, indexed, 'out_of_scope'));
         }
       }
     }
 
-    for (const other of level.level.versions) {
-      if (other === version) continue;
-      for (const rule of other.rules) {
-        if (rule.metric === metric && scopeMatches(rule.scope, appliance, testPoint)) {
-          passedOver.push(passed(rule, other, level, 'not_in_force'));
+    for (const other of indexed.versions) {
+      // Compared by the caller's version object, so a version listed twice is skipped twice as before.
+      if (other.version === inForce?.version) continue;
+      for (const rule of other.byMetric.get(metric) ?? NO_RULES) {
+        if (scopeMatches(rule.scope, appliance, testPoint)) {
+          passedOver.push(passed(rule, other.version, indexed, 'not_in_force'));
         }
       }
     }
@@ -149,6 +182,37 @@ function resolveSlot(
   return { metric, testPoint, decided, passedOver };
 }
 
+function checkDate(date: string): void {
+  if (!isIsoDate(date)) {
+    // A malformed date would silently pick the wrong version; refuse instead.
+    throw new RangeError(`resolveLimits: date must be YYYY-MM-DD, got ${JSON.stringify(date)}`);
+  }
+}
+
+/** The version in force on a date for an indexed level (same rule as versionInForce). */
+function indexedInForce(indexed: IndexedLevel, date: string): IndexedVersion | null {
+  const chosen = versionInForce(indexed.level.versions, date);
+  return chosen === null ? null : (indexed.versions.find((v) => v.version === chosen) ?? null);
+}
+
+function resolveIndexed(indexedLevels: readonly IndexedLevel[], applianceIn: ApplianceKey, date: string, includeOutOfScope: boolean): ResolvedLimits {
+  const levels: LevelInForce[] = indexedLevels.map((indexed) => ({ indexed, inForce: indexedInForce(indexed, date) }));
+  const appliance: ApplianceKey = { category: applianceIn.category, fuel: applianceIn.fuel };
+  const entries = SLOTS.map(({ metric, testPoint }) => resolveSlot(levels, appliance, metric, testPoint, includeOutOfScope));
+  const resolvedLevels: ResolvedLevel[] = levels.map(({ indexed, inForce }) => ({
+    jurisdictionId: indexed.level.jurisdictionId,
+    jurisdictionName: indexed.level.name,
+    fromOrgDefault: indexed.fromOrgDefault,
+    profileId: inForce?.version.profileId ?? null,
+    version: inForce?.version.version ?? null,
+    effectiveFrom: inForce?.version.effectiveFrom ?? null,
+  }));
+
+  return { appliance, date, levels: resolvedLevels, entries };
+}
+
+const SLOTS = limitSlots();
+
 /**
  * Which rule decides each metric (and test point) for one appliance on one date.
  * Levels are tried most local first, then the organisation default; the first level whose
@@ -156,33 +220,75 @@ function resolveSlot(
  * parent never beats an any-scope rule in a more local level.
  */
 export function resolveLimits(input: ResolveLimitsInput): ResolvedLimits {
-  if (!isIsoDate(input.date)) {
-    // A malformed date would silently pick the wrong version; refuse instead.
-    throw new RangeError(`resolveLimits: date must be YYYY-MM-DD, got ${JSON.stringify(input.date)}`);
+  checkDate(input.date);
+  return resolveIndexed(indexLevels(input.chain, input.orgDefault), input.appliance, input.date, input.includeOutOfScope ?? false);
+}
+
+export interface LimitResolver {
+  /** Same answer as resolveLimits with this resolver's chain; repeated keys return the same frozen object. */
+  resolve(appliance: ApplianceKey, date: string, options?: { includeOutOfScope?: boolean }): ResolvedLimits;
+  /** Distinct (category, fuel, date, out-of-scope) answers held. */
+  readonly size: number;
+}
+
+// Enough for every category and fuel over several years of dates; past it the cache starts
+// afresh rather than growing without bound during a long import.
+const RESOLVER_CACHE_LIMIT = 10_000;
+
+function deepFreeze<T>(value: T): T {
+  if (value !== null && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const child of Object.values(value)) deepFreeze(child);
   }
-  const levels: LevelInForce[] = [
-    ...input.chain.map((level) => ({ level, fromOrgDefault: false })),
-    ...(input.orgDefault ? [{ level: input.orgDefault, fromOrgDefault: true }] : []),
-  ].map(({ level, fromOrgDefault }) => ({ level, fromOrgDefault, inForce: versionInForce(level.versions, input.date) }));
+  return value;
+}
 
-  const appliance: ApplianceKey = { category: input.appliance.category, fuel: input.appliance.fuel };
-  const entries = limitSlots().map(({ metric, testPoint }) =>
-    resolveSlot(levels, appliance, metric, testPoint, input.includeOutOfScope ?? false),
-  );
-  const resolvedLevels: ResolvedLevel[] = levels.map(({ level, fromOrgDefault, inForce }) => ({
-    jurisdictionId: level.jurisdictionId,
-    jurisdictionName: level.name,
-    fromOrgDefault,
-    profileId: inForce?.profileId ?? null,
-    version: inForce?.version ?? null,
-    effectiveFrom: inForce?.effectiveFrom ?? null,
-  }));
-
-  return { appliance, date: input.date, levels: resolvedLevels, entries };
+/**
+ * Resolution for many appliances under one jurisdiction chain (a bulk import, a day's
+ * submissions, a scale benchmark). The chain is indexed by metric once, and each answer is
+ * memoised per (category, fuel, date, includeOutOfScope): a thousand gas boilers judged on the
+ * same day resolve once. The resolver reads the chain as it is when created; build a new one
+ * when profiles change. Answers are deep-frozen because every caller with the same key shares
+ * one object.
+ */
+export function createLimitResolver(input: { chain: readonly JurisdictionLevel[]; orgDefault: JurisdictionLevel | null }): LimitResolver {
+  const indexed = indexLevels(input.chain, input.orgDefault);
+  const cache = new Map<string, ResolvedLimits>();
+  return {
+    resolve(appliance, date, options) {
+      const includeOutOfScope = options?.includeOutOfScope ?? false;
+      const key = `${appliance.category}|${appliance.fuel}|${date}|${includeOutOfScope ? 1 : 0}`;
+      const hit = cache.get(key);
+      if (hit !== undefined) return hit;
+      checkDate(date);
+      if (cache.size >= RESOLVER_CACHE_LIMIT) cache.clear();
+      const resolved = deepFreeze(resolveIndexed(indexed, appliance, date, includeOutOfScope));
+      cache.set(key, resolved);
+      return resolved;
+    },
+    get size() {
+      return cache.size;
+    },
+  };
 }
 
 /** The entry for a metric at a test point (pass null for room CO, spillage and tightness). */
 export function findResolved(resolved: ResolvedLimits, metric: Metric, testPoint: TestPoint | null): ResolvedEntry | null {
   const slot = isReadingMetric(metric) ? testPoint : null;
+  // Entries come in limitSlots() order, so look there first; a payload reordered on its way
+  // through JSON or storage still gets the right entry from the scan.
+  const expected = resolved.entries[SLOT_INDEX[metric][slot ?? 'none']];
+  if (expected !== undefined && expected.metric === metric && expected.testPoint === slot) return expected;
   return resolved.entries.find((entry) => entry.metric === metric && entry.testPoint === slot) ?? null;
 }
+
+/** Position of each (metric, test point) in limitSlots(); -1 where a metric has no such slot. */
+const SLOT_INDEX = Object.fromEntries(
+  METRICS.map((metric) => [
+    metric,
+    Object.fromEntries([...TEST_POINTS, 'none' as const].map((point) => [
+      point,
+      SLOTS.findIndex((slot) => slot.metric === metric && slot.testPoint === (point === 'none' ? null : point)),
+    ])),
+  ]),
+) as Record<Metric, Record<TestPoint | 'none', number>>;

@@ -1,8 +1,9 @@
 // Verdicts in-process: resolve the limits and judge one inspection for each of N appliances,
 // the work the server does on submit and a scale import does in bulk.
 import { analyseFlueGas, type FuelId } from '@/lib/combustion';
-import { PRESETS, applyPreset, judge, resolveLimits, APPLIANCE_CATEGORIES, type JurisdictionLevel, type ApplianceCategory } from '@/lib/limits';
-import { record } from './report';
+import { PRESETS, applyPreset, judge, createLimitResolver, APPLIANCE_CATEGORIES, type JurisdictionLevel, type ApplianceCategory } from '@/lib/limits';
+import os from 'node:os';
+import { median, record } from './report';
 
 function level(id: string, name: string, presetIndex: number, extra: number): JurisdictionLevel {
   const rules = applyPreset(PRESETS[presetIndex % PRESETS.length]);
@@ -35,8 +36,10 @@ export function benchVerdicts(count: number): { ms: number; perAppliance: number
 
   let danger = 0;
   const t1 = performance.now();
+  // A fresh resolver each run, created inside the timing, as a bulk import would.
+  const resolver = createLimitResolver({ chain, orgDefault });
   for (const a of inputs) {
-    const resolved = resolveLimits({ chain, orgDefault, appliance: { category: a.category, fuel: a.fuel }, date: '2026-06-01' });
+    const resolved = resolver.resolve({ category: a.category, fuel: a.fuel }, '2026-06-01');
     const high = analyseFlueGas({ fuel: a.fuel, coPpm: a.coPpm, co2Pct: a.co2Pct, o2Pct: a.o2Pct, flueTempC: 160, airTempC: 15 });
     const low = analyseFlueGas({ fuel: a.fuel, coPpm: a.coPpm / 2, co2Pct: a.co2Pct - 1, o2Pct: a.o2Pct + 1, flueTempC: 120, airTempC: 15 });
     const verdict = judge({
@@ -59,16 +62,31 @@ function i0(co: number): number {
   return co % 7;
 }
 
-export function runVerdictBench(count: number): void {
+/**
+ * Several timed rounds after a warm-up; the figure is the median round, with the fastest round
+ * and the CPU time beside it, because on a shared 2-core machine one round can be stretched
+ * several-fold by other builds.
+ */
+export function runVerdictBench(count: number, rounds = 5): void {
   benchVerdicts(Math.min(count, 500)); // warm-up
-  const r = benchVerdicts(count);
+  const runs: Array<{ ms: number; baselineMs: number; cpuMs: number }> = [];
+  for (let i = 0; i < rounds; i++) {
+    const cpu0 = process.cpuUsage();
+    const r = benchVerdicts(count);
+    const cpu = process.cpuUsage(cpu0);
+    runs.push({ ms: r.ms, baselineMs: r.baselineMs, cpuMs: (cpu.user + cpu.system) / 1000 });
+  }
+  const ms = median(runs.map((r) => r.ms));
+  const baselineMs = median(runs.map((r) => r.baselineMs));
+  const full = count === 10_000;
   record({
     name: `verdicts.resolve_and_judge_${count}`,
-    value: r.ms,
+    value: ms,
     unit: 'ms',
-    target: count === 10_000 ? '≤ 250 ms' : 'smoke',
-    pass: count === 10_000 ? r.ms <= 250 : null,
-    baseline: { name: 'flue-gas arithmetic only', value: r.baselineMs, unit: 'ms' },
-    ratio: r.ms / Math.max(r.baselineMs, 0.001),
+    target: full ? '≤ 250 ms' : 'smoke',
+    pass: full ? ms <= 250 : null,
+    baseline: { name: 'flue-gas arithmetic only', value: baselineMs, unit: 'ms' },
+    ratio: ms / Math.max(baselineMs, 0.001),
+    note: `median of ${rounds} rounds; fastest ${Math.min(...runs.map((r) => r.ms)).toFixed(0)} ms; process CPU per round (both loops) ${median(runs.map((r) => r.cpuMs)).toFixed(0)} ms; load average ${os.loadavg()[0]!.toFixed(1)}`,
   });
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { findResolved, judge, resolveLimits, versionInForce, type ResolvedLimits } from '../../../lib/limits';
+import { createLimitResolver, findResolved, judge, resolveLimits, versionInForce, type ResolvedLimits } from '../../../lib/limits';
 import { NG_BOILER, figures, level, rule, simpleLevel, version } from './fixtures';
 
 describe('resolveLimits: precedence between levels', () => {
@@ -189,5 +189,36 @@ describe('resolveLimits: effective dates', () => {
   it('refuses a malformed date rather than guessing a version', () => {
     expect(() => resolveLimits({ chain: [town], orgDefault: null, appliance: NG_BOILER, date: '1/6/2024' })).toThrow(RangeError);
     expect(() => resolveLimits({ chain: [town], orgDefault: null, appliance: NG_BOILER, date: '2024-02-30' })).toThrow(RangeError);
+  });
+});
+
+describe('createLimitResolver', () => {
+  const town = simpleLevel('town', 'Town', [rule({ id: 'town-ratio', metric: 'co_co2_ratio', serviceAt: 0.006 })]);
+  const nation = level('nation', 'Nation', [
+    version('nation-code', 1, '2020-01-01', [rule({ id: 'old-af', metric: 'co_air_free_ppm', serviceAt: 200 })]),
+    version('nation-code', 2, '2025-01-01', [rule({ id: 'new-af', metric: 'co_air_free_ppm', serviceAt: 100, scope: { category: 'boiler' } })]),
+  ]);
+  const input = { chain: [town, nation], orgDefault: null };
+
+  it('answers exactly as resolveLimits does, on either side of a version change', () => {
+    const resolver = createLimitResolver(input);
+    for (const date of ['2021-06-01', '2026-06-01']) {
+      for (const includeOutOfScope of [false, true]) {
+        expect(resolver.resolve(NG_BOILER, date, { includeOutOfScope })).toEqual(resolveLimits({ ...input, appliance: NG_BOILER, date, includeOutOfScope }));
+      }
+    }
+  });
+
+  it('memoises per appliance key and date, and freezes the shared answer', () => {
+    const resolver = createLimitResolver(input);
+    const first = resolver.resolve(NG_BOILER, '2026-06-01');
+    expect(resolver.resolve({ ...NG_BOILER }, '2026-06-01')).toBe(first);
+    expect(resolver.resolve(NG_BOILER, '2021-06-01')).not.toBe(first);
+    expect(resolver.size).toBe(2);
+    expect(Object.isFrozen(findResolved(first, 'co_co2_ratio', 'high_fire')!.decided)).toBe(true);
+  });
+
+  it('refuses a malformed date like resolveLimits', () => {
+    expect(() => createLimitResolver(input).resolve(NG_BOILER, '2026-6-1')).toThrow(RangeError);
   });
 });
