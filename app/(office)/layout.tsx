@@ -8,6 +8,7 @@ export default async function OfficeLayout({ children }: { children: React.React
     { href: '/office', label: 'Overview' },
     { href: '/office/board', label: 'Board' },
     { href: '/office/sites', label: 'Sites' },
+    { href: '/office/invoices', label: 'Invoices' },
     { href: '/office/customers', label: 'Customers' },
     { href: '/office/renewals', label: 'Renewals' },
     { href: '/office/analysers', label: 'Analysers' },

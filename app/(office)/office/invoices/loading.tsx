@@ -1,0 +1,11 @@
+export default function InvoicesLoading() {
+  return (
+    <div className="flex flex-col gap-3" aria-busy="true">
+      <div className="h-8 w-40 animate-pulse rounded bg-line" />
+      {Array.from({ length: 5 }, (_, i) => (
+        <div key={i} className="h-12 animate-pulse rounded-lg bg-line/60" />
+      ))}
+      <p className="sr-only">Loading invoices…</p>
+    </div>
+  );
+}
