@@ -316,3 +316,26 @@ export async function getDashboard(input: { organisationId: string; today: strin
   };
 }
 
+
+export type PaidInvoiceRow = { id: string; number: number; siteReference: string; payerName: string; paidAt: string; netMinor: number; currency: string };
+
+/** Invoices paid in the period: the rows behind the revenue figure. */
+export async function listPaidInvoices(input: { organisationId: string; today: string }): Promise<PaidInvoiceRow[]> {
+  const rows: Row[] = await db()('invoices as i')
+    .join('sites as s', 's.id', 'i.site_id')
+    .join('users as p', 'p.id', 'i.payer_id')
+    .where('i.organisation_id', input.organisationId)
+    .whereNotNull('i.paid_at')
+    .andWhere('i.paid_at', '>=', `${periodStart(input.today)}T00:00:00.000Z`)
+    .select('i.id', 'i.number', 's.reference', 'p.name as payer_name', 'i.paid_at', 'i.amount_paid_minor', 'i.amount_refunded_minor', 'i.currency')
+    .orderBy('i.paid_at', 'desc');
+  return rows.map((r) => ({
+    id: String(r.id),
+    number: Number(r.number),
+    siteReference: String(r.reference),
+    payerName: String(r.payer_name),
+    paidAt: toIso(r.paid_at)!,
+    netMinor: Number(r.amount_paid_minor) - Number(r.amount_refunded_minor),
+    currency: String(r.currency),
+  }));
+}

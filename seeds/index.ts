@@ -4,6 +4,7 @@ import type { Knex } from 'knex';
 import { resetData } from '../db/maintenance';
 import * as core from './01-demo-core';
 import * as limits from './02-demo-limits';
+import * as field from './03-demo-field';
 import * as office from './04-demo-office';
 import * as billing from './06-demo-billing';
 
@@ -14,6 +15,7 @@ export const DEMO_SEEDS: Array<[string, SeedPart]> = (
   [
     ['01-demo-core', core],
     ['02-demo-limits', limits],
+    ['03-demo-field', field],
     ['04-demo-office', office],
     ['06-demo-billing', billing],
   ] as Array<[string, SeedPart]>

@@ -6,6 +6,7 @@ export default async function OfficeLayout({ children }: { children: React.React
   const user = await requirePageRole(['office']);
   const nav = [
     { href: '/office', label: 'Overview' },
+    { href: '/office/dashboard', label: 'Dashboard' },
     { href: '/office/board', label: 'Board' },
     { href: '/office/sites', label: 'Sites' },
     { href: '/office/invoices', label: 'Invoices' },
