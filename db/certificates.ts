@@ -30,9 +30,9 @@ function parse<T>(value: unknown, fallback: T): T {
 }
 
 /** Today in the organisation's time zone: certificates are dated by the calendar, not the instant. */
-export async function organisationToday(organisationId: string, trx: Knex = db()): Promise<string> {
-  const row: Row | undefined = await trx('organisations').where({ id: organisationId }).first('time_zone');
-  return new Intl.DateTimeFormat('en-CA', { timeZone: String(row?.time_zone ?? 'UTC'), year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date());
+export async function organisationToday(organisationId: string, at: Date = new Date()): Promise<string> {
+  const row: Row | undefined = await db()('organisations').where({ id: organisationId }).first('time_zone');
+  return new Intl.DateTimeFormat('en-CA', { timeZone: String(row?.time_zone ?? 'UTC'), year: 'numeric', month: '2-digit', day: '2-digit' }).format(at);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -171,7 +171,7 @@ export async function sendVisitBack(input: { actor: Actor; visitId: string; comm
 // Issuing
 
 export type IssueSource = {
-  report: VisitReport;
+  report: ReviewBundle;
   installation: { verdict: Verdict; limits: ResolvedLimits } | null;
   limits: LimitContext;
   organisation: { name: string; slug: string; address: string | null; phone: string | null; email: string | null; registrationNumber: string | null };
@@ -499,4 +499,75 @@ export async function getCertificateForCheck(tokenHash: string): Promise<PublicC
     status: certificateStatus({ voidedAt: toIso(row.voided_at), expiresOn, today }),
     organisationName: String(row.org_name),
   };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Portal: a landlord's or homeowner's own sites with where their certificate stands
+
+export type OpenFinding = { certificateNumberText: string; severity: 'service' | 'danger'; description: string; applianceLabel: string | null; actionLabel: string };
+
+export type PortalSite = {
+  id: string;
+  reference: string;
+  address: string;
+  town: string;
+  postcode: string;
+  current: { id: string; numberText: string; issuedOn: string; expiresOn: string; status: CertificateStatus; overallVerdict: VerdictLevel } | null;
+  openFindings: OpenFinding[];
+  renewalRequested: boolean;
+};
+
+/** Service and danger findings on the site's current certificate: the remedial work still owed. */
+function openFindingsOf(numberText: string, content: CertificateContent): OpenFinding[] {
+  return (content.findings ?? [])
+    .filter((f): f is typeof f & { severity: 'service' | 'danger' } => f.severity === 'service' || f.severity === 'danger')
+    .map((f) => ({ certificateNumberText: numberText, severity: f.severity, description: f.description, applianceLabel: f.applianceLabel, actionLabel: f.actionLabel }));
+}
+
+export async function listPortalSites(audience: SiteAudience, siteId?: string): Promise<PortalSite[]> {
+  const knex = db();
+  const today = await organisationToday(audience.organisationId);
+  const sites = knex('sites as s').where('s.organisation_id', audience.organisationId);
+  if (audience.landlordId) sites.andWhere('s.landlord_id', audience.landlordId);
+  if (audience.homeownerId) sites.andWhere('s.homeowner_id', audience.homeownerId);
+  if (siteId) sites.andWhere('s.id', siteId);
+  const siteRows: Row[] = await sites.select('s.id', 's.reference', 's.address_line1', 's.address_line2', 's.town', 's.postcode').orderBy('s.address_line1').orderBy('s.id');
+  if (siteRows.length === 0) return [];
+  const ids = siteRows.map((r) => String(r.id));
+  const certRows: Row[] = await knex('certificates')
+    .whereIn('site_id', ids)
+    .andWhere('organisation_id', audience.organisationId)
+    .whereNull('voided_at')
+    .select('id', 'site_id', 'number_text', 'issued_on', 'expires_on', 'issued_at', 'overall_verdict', 'content_json')
+    .orderBy('issued_at', 'desc');
+  const openRequests: Row[] = await knex('renewal_requests').whereIn('site_id', ids).andWhere({ organisation_id: audience.organisationId, status: 'open' }).select('site_id');
+  const requested = new Set(openRequests.map((r) => String(r.site_id)));
+  return siteRows.map((s) => {
+    const c = certRows.find((r) => r.site_id === s.id) ?? null;
+    const expiresOn = c ? (toDateOnly(c.expires_on) ?? '') : '';
+    return {
+      id: String(s.id),
+      reference: String(s.reference),
+      address: [s.address_line1, s.address_line2].filter(Boolean).join(', '),
+      town: String(s.town),
+      postcode: String(s.postcode),
+      current: c
+        ? {
+            id: String(c.id),
+            numberText: String(c.number_text),
+            issuedOn: toDateOnly(c.issued_on) ?? '',
+            expiresOn,
+            status: certificateStatus({ voidedAt: null, expiresOn, today }),
+            overallVerdict: c.overall_verdict as VerdictLevel,
+          }
+        : null,
+      openFindings: c ? openFindingsOf(String(c.number_text), parse<CertificateContent>(c.content_json, {} as CertificateContent)) : [],
+      renewalRequested: requested.has(String(s.id)),
+    };
+  });
+}
+
+/** Whether the visit is in the organisation and assigned to this engineer. */
+export async function isVisitAssignedTo(input: { organisationId: string; visitId: string; engineerId: string }): Promise<boolean> {
+  return Boolean(await db()('visits').where({ id: input.visitId, organisation_id: input.organisationId, engineer_id: input.engineerId }).first('id'));
 }

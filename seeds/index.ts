@@ -5,8 +5,10 @@ import { resetData } from '../db/maintenance';
 import * as core from './01-demo-core';
 import * as limits from './02-demo-limits';
 import * as field from './03-demo-field';
+import * as insight from './07-demo-insight';
 import * as office from './04-demo-office';
 import * as billing from './06-demo-billing';
+import * as certificates from './05-demo-certificates';
 
 type SeedPart = { seed: (knex: Knex) => Promise<void> };
 
@@ -16,8 +18,10 @@ export const DEMO_SEEDS: Array<[string, SeedPart]> = (
     ['01-demo-core', core],
     ['02-demo-limits', limits],
     ['03-demo-field', field],
+    ['07-demo-insight', insight],
     ['04-demo-office', office],
     ['06-demo-billing', billing],
+    ['05-demo-certificates', certificates],
   ] as Array<[string, SeedPart]>
 ).sort(([a], [b]) => a.localeCompare(b));
 

@@ -8,6 +8,8 @@ export default async function OfficeLayout({ children }: { children: React.React
     { href: '/office', label: 'Overview' },
     { href: '/office/dashboard', label: 'Dashboard' },
     { href: '/office/board', label: 'Board' },
+    { href: '/office/review', label: 'Review' },
+    { href: '/office/certificates', label: 'Certificates' },
     { href: '/office/sites', label: 'Sites' },
     { href: '/office/invoices', label: 'Invoices' },
     { href: '/office/customers', label: 'Customers' },

@@ -41,14 +41,14 @@ function noticeFromContent(content: CertificateContent, findingId: string): Warn
  * SHA-256, a warning notice per danger finding. A void certificate of the same visit is replaced
  * (linked) by this one. 409 when the visit is not waiting for a certificate.
  */
-export async function issueCertificate(input: { actor: Actor & { name: string }; visitId: string; appUrl: string }): Promise<IssueResult> {
+export async function issueCertificate(input: { actor: Actor; visitId: string; appUrl: string; /** Demo seeds back-date; the app always issues now. */ at?: Date }): Promise<IssueResult> {
   const { actor } = input;
   const source = await loadIssueSource(actor.organisationId, input.visitId);
   if (source.report.visit.status !== 'submitted') {
     throw new AppError('conflict', source.report.visit.status === 'certified' ? 'This visit already has a certificate. To correct it, void it and issue again.' : 'Only a submitted visit can be certified.');
   }
   const storage = storageFor(actor.organisationId);
-  const issuedOn = await organisationToday(actor.organisationId);
+  const issuedOn = await organisationToday(actor.organisationId, input.at);
   const checkedOn = source.report.visit.date;
   const expiresOn = nextExpiry({ checkedOn, previousExpiry: source.previousExpiry, policy: source.policy });
   let numberText = '';
@@ -64,12 +64,12 @@ export async function issueCertificate(input: { actor: Actor & { name: string };
         numberText,
         issuedOn,
         expiresOn,
-        issuedAt: new Date().toISOString(),
+        issuedAt: (input.at ?? new Date()).toISOString(),
         checkUrl: checkUrl(input.appUrl, token),
         replacesNumberText: source.replaces?.numberText ?? null,
         organisation: { name: source.organisation.name, address: source.organisation.address, phone: source.organisation.phone, email: source.organisation.email, registrationNumber: source.organisation.registrationNumber },
         engineer: source.engineer,
-        issuedBy: actor.name,
+        issuedBy: actor.name ?? 'the office',
         site: source.site,
         visit: { id: input.visitId, date: checkedOn, kind: source.report.visit.kind },
         records: source.report.records,
@@ -108,7 +108,7 @@ export async function issueCertificate(input: { actor: Actor & { name: string };
 }
 
 /** Voids with a reason and, when asked, issues the correction from the visit's records at once. */
-export async function voidAndMaybeReissue(input: { actor: Actor & { name: string }; certificateId: string; reason: string; reissue: boolean; appUrl: string }): Promise<{ voidedId: string; reissued: IssueResult | null }> {
+export async function voidAndMaybeReissue(input: { actor: Actor; certificateId: string; reason: string; reissue: boolean; appUrl: string }): Promise<{ voidedId: string; reissued: IssueResult | null }> {
   await voidCertificate({ actor: input.actor, id: input.certificateId, reason: input.reason });
   if (!input.reissue) return { voidedId: input.certificateId, reissued: null };
   const voided = await getCertificate({ organisationId: input.actor.organisationId }, input.certificateId);

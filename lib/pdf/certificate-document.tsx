@@ -177,6 +177,7 @@ export function CertificateDocument({ content: c, qrDataUrl, voided }: { content
             {c.replacesNumberText ? <Text style={[s.soft, { marginTop: 6 }]}>This certificate corrects and replaces certificate {c.replacesNumberText}, which is void.</Text> : null}
           </View>
           <View style={s.qrBox}>
+            {/* eslint-disable-next-line jsx-a11y/alt-text -- a react-pdf Image, not an HTML img; the caption below says what it is */}
             <Image src={qrDataUrl} style={s.qr} />
             <Text style={s.qrText}>Scan to check that this certificate is genuine and still valid.</Text>
           </View>
