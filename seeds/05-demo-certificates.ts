@@ -34,9 +34,9 @@ const PLANS: Plan[] = [
     engineer: 0,
     issue: 'none',
     occupant: 'J. Kerr',
-    dangerApplianceIndex: 1,
+    dangerApplianceIndex: 0,
     overdueAnalyser: true,
-    findings: [{ applianceIndex: 1, severity: 'danger', description: 'Gas fire spilling products into the living room during the spillage test; flue found partly blocked by debris.', action: 'turned_off' }],
+    findings: [{ applianceIndex: 0, severity: 'danger', description: 'Boiler spilling products into the utility room during the spillage test; flue found partly blocked by debris.', action: 'turned_off' }],
   },
   { visitId: demoIds.visit(12, 92), siteIndex: 12, newVisitDaysAgo: 2, engineer: 1, issue: 'none', occupant: 'M. Sato', findings: [] },
 ];

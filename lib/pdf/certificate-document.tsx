@@ -18,7 +18,7 @@ export type VoidMarking = { voidedAt: string; reason: string; replacedByNumberTe
 const s = StyleSheet.create({
   page: { fontFamily: PDF_FONT, fontSize: 9, color: PDF_COLOURS.ink, padding: PDF_PAGE.margin, paddingBottom: 56 },
   voidBand: { backgroundColor: PDF_COLOURS.danger, color: '#ffffff', padding: 6, marginBottom: 10, borderRadius: 3 },
-  voidTitle: { fontSize: 16, fontWeight: 700, letterSpacing: 2 },
+  voidTitle: { fontSize: 16, fontWeight: 700 },
   outcome: { flexDirection: 'row', borderWidth: 1, borderColor: PDF_COLOURS.line, borderRadius: 4, padding: 10, marginBottom: 12 },
   outcomeMain: { flexGrow: 1, flexBasis: 0, paddingRight: 10 },
   bigLabel: { fontSize: 8, fontWeight: 700, color: PDF_COLOURS.inkSoft, textTransform: 'uppercase', letterSpacing: 0.6, marginBottom: 3 },
@@ -54,6 +54,10 @@ const s = StyleSheet.create({
 function formatDate(iso: string): string {
   const [y, m, d] = iso.slice(0, 10).split('-').map(Number);
   return new Date(Date.UTC(y!, m! - 1, d!)).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+}
+
+function cap(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
 function Bullets({ lines }: { lines: readonly string[] }) {
@@ -125,12 +129,12 @@ function ApplianceBlock({ a }: { a: CertificateAppliance }) {
         <View style={s.decided}>
           <Text>
             <Text style={s.strong}>Verdict: {PDF_VERDICT_WORDS[a.level]}. </Text>
-            {a.decidedBy ? a.decidedBy.explanation : 'Every judged figure is within its limit.'}
+            {a.decidedBy ? cap(a.decidedBy.explanation) : 'Every judged figure is within its limit.'}
           </Text>
           {a.decidedBy?.source ? <Text style={s.itemLine}>Source: {a.decidedBy.source}{a.decidedBy.jurisdictionName ? ` (${a.decidedBy.jurisdictionName})` : ''}</Text> : null}
           {(flagged.length > 0 ? flagged : a.items).slice(0, 8).filter((i) => i.explanation !== a.decidedBy?.explanation).map((i) => (
             <Text key={`${i.metric}-${i.testPoint}-${i.subject}`} style={s.itemLine}>
-              {PDF_VERDICT_WORDS[i.level]}: {i.explanation}
+              {PDF_VERDICT_WORDS[i.level]}: {cap(i.explanation)}
             </Text>
           ))}
         </View>
@@ -275,7 +279,7 @@ export function CertificateDocument({ content: c, qrDataUrl, voided }: { content
               <Text>{c.signoff.declarationText}</Text>
               <Text style={s.soft}>
                 Declared by {c.engineer.name} on {formatDate(c.signoff.declaredAt)}.{' '}
-                {c.signoff.signed ? `Signed on site by ${c.signoff.occupantName ?? 'the occupant'}.` : `No occupant signature: ${c.signoff.noSignatureReason ?? 'no reason given'}.`}
+                {c.signoff.signed ? `Signed on site by ${c.signoff.occupantName ?? 'the occupant'}.` : `No occupant signature: ${(c.signoff.noSignatureReason ?? 'no reason given').replace(/\.+$/, '')}.`}
               </Text>
             </>
           ) : (

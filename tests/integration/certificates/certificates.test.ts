@@ -144,7 +144,7 @@ describe('issuing a certificate', () => {
       expect(text).toContain(`Verdict: ${words[i.verdict_of_record]}.`);
       expect(text).toContain(JSON.parse(i.appliance_json).location);
       const decided = JSON.parse(i.verdict_json).decidedBy as { explanation: string } | null;
-      if (decided) expect(text).toContain(decided.explanation.replace(/\s+/g, ' ').slice(0, 40));
+      if (decided) expect(text.toLowerCase()).toContain(decided.explanation.replace(/\s+/g, ' ').slice(0, 40).toLowerCase());
     }
     expect(inspections.some((i) => i.verdict_of_record === 'danger')).toBe(true);
     for (const line of CAUTION_LINES) expect(text).toContain(line.slice(0, 60));
