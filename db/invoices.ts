@@ -292,6 +292,11 @@ export async function createInvoiceFromVisit(input: { organisationId: string; cr
   const { organisationId, data } = input;
   const id = newId();
   await db().transaction(async (trx) => {
+    // Number first: its row lock queues concurrent requests of the organisation here, so the "already
+    // invoiced" check below sees an invoice committed meanwhile. SQLite serialises whole transactions
+    // anyway; on PostgreSQL, checking first let two requests for one visit both pass. A refusal below
+    // rolls the number back with everything else, so no gap appears.
+    const number = await allocateInvoiceNumber(trx, organisationId);
     const visit: Row | undefined = await trx('visits as v')
       .join('sites as s', 's.id', 'v.site_id')
       .where({ 'v.organisation_id': organisationId, 'v.id': data.visitId })
@@ -315,7 +320,6 @@ export async function createInvoiceFromVisit(input: { organisationId: string; cr
       throw new AppError('conflict', 'The price list has no active price for this visit type. Add one under Prices first.');
     }
     const totals = computeInvoiceTotals({ lines, taxRateBp: settings.taxRateBp });
-    const number = await allocateInvoiceNumber(trx, organisationId);
     const now = nowIso();
     await trx('invoices').insert({
       id,
