@@ -12,6 +12,8 @@ import * as syncRoute from '@/app/api/v1/sync/route';
 import { ENGINEER_DECLARATION } from '@/lib/field';
 import type { MutationResult } from '@/lib/validations/sync';
 import { applianceAt, as, mutation, office, priya, reading, tomasz, visits } from './helpers';
+// Raw rows: SQLite gives timestamps as text, PostgreSQL as Date; toIso reads both.
+import { toIso } from '@/db/rows';
 
 type Body = { results: MutationResult[] };
 
@@ -172,7 +174,7 @@ describe('readings are never overwritten', () => {
 
   it('when the office changed the appliance meanwhile, both versions are kept and the conflict is flagged', async () => {
     const appliance = await db()('appliances').where({ id: BOILER }).first();
-    const seenAt = new Date(appliance.updated_at.includes('T') ? appliance.updated_at : `${appliance.updated_at.replace(' ', 'T')}Z`).toISOString();
+    const seenAt = toIso(appliance.updated_at)!;
     // The office corrects the model while the engineer is offline.
     await db()('appliances').where({ id: BOILER }).update({ model: 'Floor 50S', updated_at: new Date(Date.now() + 1000).toISOString() });
     const details = {
@@ -225,7 +227,7 @@ describe('readings are never overwritten', () => {
 
   it('with no office change, the engineer’s edit updates the record, and a second edit is not a conflict', async () => {
     const appliance = await db()('appliances').where({ id: HEATER }).first();
-    const base = new Date(appliance.updated_at.includes('T') ? appliance.updated_at : `${appliance.updated_at.replace(' ', 'T')}Z`).toISOString();
+    const base = toIso(appliance.updated_at)!;
     const payload = (location: string) => ({
       applianceId: HEATER,
       details: { category: 'space_heater' as const, fuel: 'natural-gas' as const, flueType: 'open_flue' as const, location, make: 'Emberley', model: 'Inset Fire 4', serial: appliance.serial, ratedInputKw: 4.2, mfrRatioMax: null, mfrCoAirFreeMaxPpm: null, mfrCoMaxPpm: null },
