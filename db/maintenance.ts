@@ -42,10 +42,11 @@ export async function resetData(knex: Knex): Promise<void> {
 }
 
 /**
- * Drops and recreates one PostgreSQL database (tests: each vitest worker owns one). Connects to the
- * server's `postgres` database to do it, since a database cannot drop itself.
+ * Drops and recreates one PostgreSQL database (tests: each vitest worker owns one), empty or as a
+ * copy of a template database. Connects to the server's `postgres` database to do it, since a
+ * database cannot drop itself.
  */
-export async function recreatePgDatabase(databaseUrl: string): Promise<void> {
+export async function recreatePgDatabase(databaseUrl: string, options: { template?: string } = {}): Promise<void> {
   const url = new URL(databaseUrl);
   const name = decodeURIComponent(url.pathname.slice(1));
   if (!/^[a-z_][a-z0-9_]{0,62}$/.test(name) || name === 'postgres') throw new Error(`refusing to recreate database "${name}"`);
@@ -54,7 +55,9 @@ export async function recreatePgDatabase(databaseUrl: string): Promise<void> {
   try {
     // force: ends connections a previous test file left open (PostgreSQL 13+).
     await admin.raw('drop database if exists ?? with (force)', [name]);
-    await admin.raw('create database ??', [name]);
+    // A template (already migrated, maybe seeded) is copied file by file: far quicker than migrating again.
+    if (options.template) await admin.raw('create database ?? template ??', [name, options.template]);
+    else await admin.raw('create database ??', [name]);
   } finally {
     await admin.destroy();
   }

@@ -5,10 +5,17 @@ import { db, closeDb } from '@/db/knex';
 import { migrateLatest, recreatePgDatabase } from '@/db/maintenance';
 import { seedDemo } from '@/seeds';
 import { env } from '@/lib/env';
+import { PG_TEMPLATE_MIGRATED, PG_TEMPLATE_SEEDED } from './pg-templates';
 
 export async function freshDatabase(options: { seed?: boolean } = {}) {
   await closeDb();
   const { DATABASE_URL, DATABASE_FILE: file } = env();
+  // scripts/pg-test.ts builds both templates once per run, so each file starts from a copy.
+  const templates = process.env.HEARTHMARK_TEST_PG_TEMPLATES === 'true';
+  if (DATABASE_URL && templates) {
+    await recreatePgDatabase(DATABASE_URL, { template: options.seed ? PG_TEMPLATE_SEEDED : PG_TEMPLATE_MIGRATED });
+    return db();
+  }
   if (DATABASE_URL) await recreatePgDatabase(DATABASE_URL);
   else for (const f of [file, `${file}-wal`, `${file}-shm`]) fs.rmSync(f, { force: true });
   await migrateLatest(db());
