@@ -2,6 +2,7 @@ import { apiRoute } from '@/lib/api/handler';
 import { AppError } from '@/lib/errors';
 import { idSchema } from '@/lib/validations/list-query';
 import { getOpenVisitReturn, isVisitAssignedTo } from '@/db/certificates';
+import { getVisit } from '@/db/schedule';
 
 export const runtime = 'nodejs';
 
@@ -10,5 +11,7 @@ export const GET = apiRoute<{ id: string }>(['engineer', 'office'], async ({ use
   const visitId = idSchema.safeParse(params.id);
   if (!visitId.success) throw new AppError('not_found', 'No such visit.');
   if (user.role === 'engineer' && !(await isVisitAssignedTo({ organisationId: user.organisationId, visitId: visitId.data, engineerId: user.id }))) throw new AppError('not_found', 'No such visit.');
+  // Another organisation's visit (or none) is a 404 for the office too, not an empty answer.
+  if (user.role === 'office' && !(await getVisit(user.organisationId, visitId.data))) throw new AppError('not_found', 'No such visit.');
   return { returned: await getOpenVisitReturn({ organisationId: user.organisationId, visitId: visitId.data }) };
 });
