@@ -3,3 +3,4 @@
 export * from './trend';
 export * from './hints';
 export * from './history';
+export * from './csv';

@@ -113,6 +113,22 @@ export default async function DashboardPage() {
         </div>
       </section>
 
+      <section aria-labelledby="export-heading" className="rounded-xl border border-line bg-card p-3">
+        <h2 id="export-heading" className="text-lg font-bold">Export inspections and readings</h2>
+        <form action="/api/v1/exports/inspections" method="get" className="mt-2 flex flex-wrap items-end gap-3 text-sm">
+          <label className="flex flex-col gap-1">
+            From
+            <input type="date" name="from" required defaultValue={d.periodStart} className="min-h-11 rounded-md border border-line px-2" />
+          </label>
+          <label className="flex flex-col gap-1">
+            To
+            <input type="date" name="to" required defaultValue={today} className="min-h-11 rounded-md border border-line px-2" />
+          </label>
+          <button type="submit" className="min-h-11 rounded-md bg-copper px-4 font-semibold text-white hover:bg-copper-dark">Download CSV</button>
+        </form>
+        <p className="mt-1 text-xs text-ink-soft">One row per reading, by visit date. Cells that a spreadsheet could run as a formula are prefixed with a quote.</p>
+      </section>
+
       {roomChecks.length ? (
         <section aria-labelledby="room-heading">
           <h2 id="room-heading" className="mb-2 text-lg font-bold">Highest room CO checks</h2>
