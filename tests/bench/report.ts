@@ -43,6 +43,16 @@ export function writeResults(extra: Record<string, unknown> = {}): string {
   return file;
 }
 
+/** For a benchmark run as a child process: hand its figures to the parent through a file. */
+export function writeFigures(file: string): void {
+  fs.writeFileSync(file, JSON.stringify(figures));
+}
+
+/** Takes in a child's figures (already printed by the child) so they reach latest.json. */
+export function adoptFigures(file: string): void {
+  if (fs.existsSync(file)) figures.push(...(JSON.parse(fs.readFileSync(file, 'utf8')) as Figure[]));
+}
+
 export function allFigures(): readonly Figure[] {
   return figures;
 }
