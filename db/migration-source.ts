@@ -7,6 +7,7 @@ import * as m020 from '../migrations/20261202_020_field';
 import * as m050 from '../migrations/20261202_050_billing';
 import * as m030 from '../migrations/20261202_030_office';
 import * as m040 from '../migrations/20261202_040_certificates';
+import * as m090 from '../migrations/20261202_090_double_precision';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
@@ -14,6 +15,7 @@ type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Prom
 export const MIGRATIONS: Array<[string, Migration]> = (
   [
     ['20261202_001_core', m001],
+    ['20261202_090_double_precision', m090],
     ['20261202_010_limits', m010],
     ['20261202_020_field', m020],
     ['20261202_050_billing', m050],
