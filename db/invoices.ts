@@ -66,7 +66,7 @@ export type InvoiceDetail = InvoiceSummary & {
   lastPaymentErrorAt: string | null;
   payerEmail: string;
   site: { reference: string; addressLine1: string; addressLine2: string | null; town: string; postcode: string };
-  organisation: { name: string; address: string | null; email: string | null; phone: string | null; registrationNumber: string | null };
+  organisation: { name: string; address: string | null; email: string | null; phone: string | null; registrationNumber: string | null; timeZone: string };
 };
 
 type Row = Record<string, unknown>;
@@ -178,7 +178,7 @@ export async function listInvoices(audience: InvoiceAudience, query: InvoiceList
 export async function getInvoice(audience: InvoiceAudience, id: string, trx: Knex | Knex.Transaction = db()): Promise<InvoiceDetail | null> {
   const row: Row | undefined = await withDetails(scoped(trx, audience).andWhere('i.id', id))
     .join('organisations as o', 'o.id', 'i.organisation_id')
-    .select('o.name as org_name', 'o.address as org_address', 'o.email as org_email', 'o.phone as org_phone', 'o.registration_number as org_registration')
+    .select('o.name as org_name', 'o.address as org_address', 'o.email as org_email', 'o.phone as org_phone', 'o.registration_number as org_registration', 'o.time_zone as org_time_zone')
     .first();
   if (!row) return null;
   const lines: Row[] = await trx('invoice_lines').where({ invoice_id: id }).orderBy('position', 'asc');
@@ -218,6 +218,7 @@ export async function getInvoice(audience: InvoiceAudience, id: string, trx: Kne
       email: (row.org_email as string | null) ?? null,
       phone: (row.org_phone as string | null) ?? null,
       registrationNumber: (row.org_registration as string | null) ?? null,
+      timeZone: String(row.org_time_zone ?? 'UTC'),
     },
   };
 }

@@ -12,7 +12,7 @@ export function InvoiceLines({ invoice }: { invoice: InvoiceDetail }) {
         <thead className="border-b border-ink/60 text-ink-soft">
           <tr>
             <th scope="col" className="py-2 pr-2 font-semibold">Item</th>
-            <th scope="col" className="py-2 pr-2 text-right font-semibold">Qty</th>
+            <th scope="col" className="hidden py-2 pr-2 text-right font-semibold sm:table-cell">Qty</th>
             <th scope="col" className="hidden py-2 pr-2 text-right font-semibold sm:table-cell">Unit price</th>
             <th scope="col" className="py-2 text-right font-semibold">Amount</th>
           </tr>
@@ -26,7 +26,7 @@ export function InvoiceLines({ invoice }: { invoice: InvoiceDetail }) {
                   {line.quantity} × {money(line.unitAmountMinor)}
                 </span>
               </td>
-              <td className="py-2 pr-2 text-right">{line.quantity}</td>
+              <td className="hidden py-2 pr-2 text-right sm:table-cell">{line.quantity}</td>
               <td className="hidden py-2 pr-2 text-right sm:table-cell">{money(line.unitAmountMinor)}</td>
               <td className="py-2 text-right">{money(line.amountMinor)}</td>
             </tr>

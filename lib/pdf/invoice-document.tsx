@@ -45,21 +45,22 @@ const s = StyleSheet.create({
   footer: { position: 'absolute', left: PDF_PAGE.margin, right: PDF_PAGE.margin, bottom: 24, fontSize: 8, color: PDF_COLOURS.inkSoft, borderTopWidth: 0.5, borderColor: PDF_COLOURS.line, paddingTop: 6 },
 });
 
-function statusLine(invoice: InvoiceDetail): string {
+/** What follows the status word in the status band, e.g. "UNPAID · £178.80 due by 16 December 2026". */
+function statusDetail(invoice: InvoiceDetail): string {
   const money = (minor: number) => formatMoney(minor, invoice.currency);
   switch (invoice.status) {
     case 'sent':
-      return invoice.dueOn ? `Unpaid: ${money(invoice.totalMinor)} due by ${formatDateOnly(invoice.dueOn)}` : `Unpaid: ${money(invoice.totalMinor)}`;
+      return invoice.dueOn ? `${money(invoice.totalMinor)} due by ${formatDateOnly(invoice.dueOn)}` : `${money(invoice.totalMinor)} due`;
     case 'paid':
-      return `Paid in full${invoice.paidAt ? ` on ${formatDateOnly(invoice.paidAt.slice(0, 10))}` : ''}`;
+      return `in full${invoice.paidAt ? ` on ${formatDateOnly(invoice.paidAt.slice(0, 10))}` : ''}`;
     case 'partly_refunded':
-      return `Paid; ${money(invoice.amountRefundedMinor)} refunded`;
+      return `${money(invoice.amountRefundedMinor)} of ${money(invoice.amountPaidMinor)} paid has been refunded`;
     case 'refunded':
-      return `Paid and refunded in full (${money(invoice.amountRefundedMinor)})`;
+      return `${money(invoice.amountRefundedMinor)} paid and refunded in full`;
     case 'void':
-      return 'Void: nothing to pay';
+      return 'nothing to pay';
     case 'draft':
-      return 'Draft: not yet issued';
+      return 'not yet issued';
   }
 }
 
@@ -76,7 +77,7 @@ export function InvoiceDocument({ invoice }: { invoice: InvoiceDetail }) {
       <Page size={PDF_PAGE.size} style={s.page}>
         <PdfPageHeader organisation={org.name} title="Invoice" reference={invoice.numberText} />
         <Text style={[s.status, { color: colours.fg, backgroundColor: colours.bg }]}>
-          {INVOICE_STATUS_LABELS[invoice.status].toUpperCase()} · {statusLine(invoice)}
+          {INVOICE_STATUS_LABELS[invoice.status].toUpperCase()} · {statusDetail(invoice)}
         </Text>
 
         <View style={s.parties}>

@@ -26,7 +26,7 @@ export default async function OfficeInvoicePage({ params }: { params: Promise<{ 
   const invoice = await getInvoice({ organisationId: user.organisationId }, id);
   if (!invoice) notFound();
   const events = await listInvoicePaymentEvents({ organisationId: user.organisationId, invoiceId: invoice.id });
-  const dateTime = (iso: string) => new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'Europe/London' }).format(new Date(iso));
+  const dateTime = (iso: string) => new Intl.DateTimeFormat('en-GB', { dateStyle: 'medium', timeStyle: 'short', timeZone: invoice.organisation.timeZone }).format(new Date(iso));
   return (
     <div className="flex flex-col gap-4">
       <p className="text-sm">

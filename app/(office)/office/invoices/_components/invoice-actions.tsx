@@ -31,7 +31,8 @@ function RefundForm({ invoice, onRequested }: { invoice: ActionInvoice; onReques
   const [failure, setFailure] = useState('');
   const { control, handleSubmit, setError, setValue, formState } = useForm<RefundData>({
     resolver: zodResolver(refundSchema),
-    defaultValues: { amountMinor: invoice.refundableMinor },
+    // Empty to start with: a refund is typed or chosen on purpose, never one click away.
+    defaultValues: { amountMinor: Number.NaN },
   });
   const e = formState.errors;
 

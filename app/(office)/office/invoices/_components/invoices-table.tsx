@@ -26,17 +26,6 @@ const columns = [
       </Link>
     ),
   }),
-  col.accessor('payerName', {
-    header: 'Payer',
-    meta: { sort: 'payer' },
-    cell: (c) => (
-      <>
-        {c.getValue()}
-        <span className="block text-xs text-ink-soft">{c.row.original.payerRole === 'landlord' ? 'Landlord' : 'Homeowner'}</span>
-      </>
-    ),
-  }),
-  col.accessor('siteAddress', { header: 'Property' }),
   col.accessor('status', {
     header: 'Status',
     meta: { sort: 'status' },
@@ -49,6 +38,17 @@ const columns = [
     ),
   }),
   col.accessor('totalMinor', { header: 'Total', meta: { sort: 'total' }, cell: (c) => <span className="tabular whitespace-nowrap">{formatMoney(c.getValue(), c.row.original.currency)}</span> }),
+  col.accessor('payerName', {
+    header: 'Payer',
+    meta: { sort: 'payer' },
+    cell: (c) => (
+      <>
+        {c.getValue()}
+        <span className="block text-xs text-ink-soft">{c.row.original.payerRole === 'landlord' ? 'Landlord' : 'Homeowner'}</span>
+      </>
+    ),
+  }),
+  col.accessor('siteAddress', { header: 'Property' }),
   col.display({
     id: 'payment',
     header: 'Paid / refunded',

@@ -83,28 +83,32 @@ export function RaiseInvoiceForm({ visits, priceList, initialVisitId }: { visits
           options={visits.map((v) => ({ value: v.id, label: visitLabel(v) }))}
         />
       </Field>
+      <p className="-mt-2 text-sm text-ink-soft" data-testid="chosen-visit">
+        {visit.siteAddress} · {visit.applianceCategories.length} appliance{visit.applianceCategories.length === 1 ? '' : 's'} · visit {visit.status}
+      </p>
       <Field id="payerId" label="Who pays" error={e.payerId?.message} hint="The landlord or homeowner of the property. The invoice and its pay link go to their e-mail.">
         <Select {...register('payerId')} {...errorProps('payerId', e.payerId)} options={visit.payers.map((p) => ({ value: p.id, label: `${p.name} (${p.role === 'landlord' ? 'landlord' : 'homeowner'})` }))} />
       </Field>
 
       {extras.length > 0 ? (
         <fieldset className="flex flex-col gap-2">
-          <legend className="mb-1 text-sm font-semibold">Extras</legend>
+          <legend className="mb-1 text-sm font-semibold">Extras (how many)</legend>
           {extras.map((x) => (
             <div key={x.id} className="flex items-center gap-3">
               <label htmlFor={`extra-${x.id}`} className="flex-1 text-sm">
                 {x.name} <span className="text-ink-soft">({money(x.unitAmountMinor)} each)</span>
               </label>
-              <Input
-                id={`extra-${x.id}`}
-                type="number"
-                min={0}
-                max={99}
-                inputMode="numeric"
-                className="w-20"
-                value={quantityOf(x.id)}
-                onChange={(event) => setQuantity(x.id, Math.max(0, Math.min(99, Math.trunc(Number(event.target.value) || 0))))}
-              />
+              <div className="w-20 shrink-0">
+                <Input
+                  id={`extra-${x.id}`}
+                  type="number"
+                  min={0}
+                  max={99}
+                  inputMode="numeric"
+                  value={quantityOf(x.id)}
+                  onChange={(event) => setQuantity(x.id, Math.max(0, Math.min(99, Math.trunc(Number(event.target.value) || 0))))}
+                />
+              </div>
             </div>
           ))}
           {e.extras ? <p className="text-sm font-semibold text-danger" role="alert">{e.extras.message ?? 'Check the extras'}</p> : null}

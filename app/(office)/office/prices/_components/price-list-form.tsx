@@ -54,44 +54,51 @@ function PriceRow({ index, item, control, errors, currency, onRemove }: {
   const e = errors.items?.[index];
   const label = codeLabel(item.kind, item.code);
   return (
-    <li className="grid grid-cols-1 gap-2 border-t border-line py-3 sm:grid-cols-[1fr_9rem_auto] sm:items-start" data-testid={`price-${item.kind}`}>
-      <Field id={`items.${index}.name`} label={label ? `Name on invoice · ${label}` : 'Name on invoice'} error={e?.name?.message ?? e?.code?.message}>
-        <Controller control={control} name={`items.${index}.name`} render={({ field }) => <Input {...field} {...errorProps(`items.${index}.name`, e?.name)} />} />
-      </Field>
-      <Field id={`items.${index}.unitAmountMinor`} label={`Price (${currency})`} error={e?.unitAmountMinor?.message}>
-        <Controller
-          control={control}
-          name={`items.${index}.unitAmountMinor`}
-          render={({ field }) => (
-            <ParsedInput
-              {...errorProps(`items.${index}.unitAmountMinor`, e?.unitAmountMinor)}
-              name={field.name}
-              onBlur={field.onBlur}
-              value={field.value}
-              onChange={field.onChange}
-              parse={(text) => parseMoneyInput(text, currency)}
-              format={(minor) => toMajorText(minor, currency)}
-              placeholder="0.00"
+    <li className="flex flex-col gap-2 border-t border-line py-3 first:border-t-0" data-testid={`price-${item.kind}`}>
+      {label ? <p className="font-bold">{label}</p> : null}
+      <div className="grid grid-cols-1 gap-2 sm:grid-cols-[1fr_auto] sm:items-start">
+        <Field id={`items.${index}.name`} label="Name on invoice" error={e?.name?.message ?? e?.code?.message}>
+          <Controller control={control} name={`items.${index}.name`} render={({ field }) => <Input {...field} {...errorProps(`items.${index}.name`, e?.name)} />} />
+        </Field>
+        <div className="flex flex-wrap items-start gap-3">
+          <div className="w-32">
+            <Field id={`items.${index}.unitAmountMinor`} label={`Price (${currency})`} error={e?.unitAmountMinor?.message}>
+              <Controller
+                control={control}
+                name={`items.${index}.unitAmountMinor`}
+                render={({ field }) => (
+                  <ParsedInput
+                    {...errorProps(`items.${index}.unitAmountMinor`, e?.unitAmountMinor)}
+                    name={field.name}
+                    onBlur={field.onBlur}
+                    value={field.value}
+                    onChange={field.onChange}
+                    parse={(text) => parseMoneyInput(text, currency)}
+                    format={(minor) => toMajorText(minor, currency)}
+                    placeholder="0.00"
+                  />
+                )}
+              />
+            </Field>
+          </div>
+          <div className="flex items-center gap-1 pt-6">
+            <Controller
+              control={control}
+              name={`items.${index}.active`}
+              render={({ field }) => (
+                <label className="inline-flex min-h-11 items-center gap-2 px-1 text-sm">
+                  <input type="checkbox" className="h-5 w-5 accent-copper" checked={Boolean(field.value)} onChange={(ev) => field.onChange(ev.target.checked)} />
+                  In use
+                </label>
+              )}
             />
-          )}
-        />
-      </Field>
-      <div className="flex items-center gap-3 sm:pt-7">
-        <Controller
-          control={control}
-          name={`items.${index}.active`}
-          render={({ field }) => (
-            <label className="inline-flex min-h-11 items-center gap-2 text-sm">
-              <input type="checkbox" className="h-5 w-5 accent-copper" checked={Boolean(field.value)} onChange={(ev) => field.onChange(ev.target.checked)} />
-              In use
-            </label>
-          )}
-        />
-        {onRemove ? (
-          <Button type="button" variant="ghost" onClick={onRemove} aria-label={`Remove ${item.name || 'this price'}`}>
-            Remove
-          </Button>
-        ) : null}
+            {onRemove ? (
+              <Button type="button" variant="ghost" onClick={onRemove} aria-label={`Remove ${item.name || label || 'this price'}`}>
+                Remove
+              </Button>
+            ) : null}
+          </div>
+        </div>
       </div>
     </li>
   );
