@@ -26,9 +26,6 @@ const asOther = () => signInAs({ id: otherOffice.id, role: 'office', organisatio
 const DAY = '2027-06-14'; // a Monday in British Summer Time, clear of the demo's bookings
 const site = demoIds.site(4);
 
-function patchJson(url: string, body: unknown) {
-  return new Request(new URL(url, 'http://localhost:3000'), { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-}
 async function book(body: Record<string, unknown>) {
   return visitsRoute.POST(postJson('/api/v1/visits', { siteId: site, engineerId: priya.id, kind: 'annual_check', date: DAY, startTime: '09:00', endTime: '11:00', notes: '', ...body }), noParams);
 }
