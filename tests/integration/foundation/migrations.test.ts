@@ -24,7 +24,7 @@ describe('migrations', () => {
     expect(await dataTables(knex)).toEqual([]);
     await migrateLatest(knex);
     expect((await dataTables(knex)).sort()).toEqual(up.sort());
-  });
+  }, 120_000);
 
   it('the demo seed runs twice and gives the same counts', async () => {
     await freshDatabase();
@@ -40,5 +40,5 @@ describe('migrations', () => {
     const roles = await db()('users').where({ organisation_id: (await db()('organisations').where({ slug: 'kilnbrook' }).first()).id }).select('role');
     const tally = roles.reduce<Record<string, number>>((acc, r) => ({ ...acc, [r.role]: (acc[r.role] ?? 0) + 1 }), {});
     expect(tally).toEqual({ engineer: 2, office: 1, landlord: 3, homeowner: 4 });
-  });
+  }, 300_000); // the full demo renders certificate PDFs twice: slow on a loaded 2-core machine
 });
