@@ -7,6 +7,7 @@ import * as m020 from '../migrations/20261202_020_field';
 import * as m050 from '../migrations/20261202_050_billing';
 import * as m030 from '../migrations/20261202_030_office';
 import * as m040 from '../migrations/20261202_040_certificates';
+import * as m070 from '../migrations/20261202_070_scale_indexes';
 import * as m090 from '../migrations/20261202_090_double_precision';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
@@ -21,6 +22,7 @@ export const MIGRATIONS: Array<[string, Migration]> = (
     ['20261202_050_billing', m050],
     ['20261202_030_office', m030],
     ['20261202_040_certificates', m040],
+    ['20261202_070_scale_indexes', m070],
   ] as Array<[string, Migration]>
 ).sort(([a], [b]) => a.localeCompare(b));
 
