@@ -111,7 +111,14 @@ export async function listBoard(input: { organisationId: string; from: string; d
   const start = zonedToUtc(input.from, '00:00', timeZone).toISOString();
   const end = zonedToUtc(shiftDate(input.from, input.days), '00:00', timeZone).toISOString();
   // Clashes are computed over everyone's visits so filtering by engineer still shows site clashes.
-  const rows = await visitQuery(db(), input.organisationId).andWhere('v.window_start', '<', end).andWhere('v.window_end', '>', start).orderBy('v.window_start');
+  // A booking window lies within one day, so nothing starting two days before `from` can reach it;
+  // the lower bound lets the (organisation_id, window_start) index skip every past visit.
+  const earliest = new Date(Date.parse(start) - 2 * 86_400_000).toISOString();
+  const rows = await visitQuery(db(), input.organisationId)
+    .andWhere('v.window_start', '>=', earliest)
+    .andWhere('v.window_start', '<', end)
+    .andWhere('v.window_end', '>', start)
+    .orderBy('v.window_start');
   const all = rows.map(toBoardVisit);
   const clashes = findClashes(all, timeZone);
   const visits = all.filter((v) => !input.engineerId || v.engineerId === input.engineerId).map((v) => ({ ...v, warnings: clashes.get(v.id) ?? [] }));
