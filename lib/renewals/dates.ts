@@ -43,6 +43,18 @@ export function daysBetween(a: IsoDate, b: IsoDate): number {
 
 /** The calendar date of an instant in a time zone (e.g. the organisation's). */
 export function dateInZone(instant: Date, timeZone: string): IsoDate {
-  const f = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
-  return f.format(instant);
+  return dateFormatter(timeZone).format(instant);
+}
+
+// Building an Intl.DateTimeFormat costs far more than formatting with one, and the renewals list
+// formats one date per certified visit; one formatter per time zone is kept (a handful at most).
+const dateFormatters = new Map<string, Intl.DateTimeFormat>();
+
+function dateFormatter(timeZone: string): Intl.DateTimeFormat {
+  let f = dateFormatters.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' });
+    dateFormatters.set(timeZone, f);
+  }
+  return f;
 }

@@ -1,8 +1,25 @@
 // Wall-clock times in the organisation's time zone <-> instants, with Intl only (no extra package).
 // Pure; used by the booking handler and the board.
 
+// Building an Intl.DateTimeFormat costs far more than formatting with one, and the board converts
+// every visit of the week; one formatter per (purpose, time zone) is kept.
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+function formatter(key: 'offset' | 'local', timeZone: string): Intl.DateTimeFormat {
+  const id = `${key} ${timeZone}`;
+  let f = formatters.get(id);
+  if (!f) {
+    f =
+      key === 'offset'
+        ? new Intl.DateTimeFormat('en-GB', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' })
+        : new Intl.DateTimeFormat('en-CA', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' });
+    formatters.set(id, f);
+  }
+  return f;
+}
+
 function offsetMinutes(instant: Date, timeZone: string): number {
-  const f = new Intl.DateTimeFormat('en-GB', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+  const f = formatter('offset', timeZone);
   const p = Object.fromEntries(f.formatToParts(instant).map((x) => [x.type, x.value]));
   const asUtc = Date.UTC(Number(p.year), Number(p.month) - 1, Number(p.day), Number(p.hour), Number(p.minute), Number(p.second));
   return Math.round((asUtc - instant.getTime()) / 60000);
@@ -21,7 +38,7 @@ export function zonedToUtc(date: string, time: string, timeZone: string): Date {
 /** The instant's date and HH:MM in the time zone. */
 export function utcToZoned(instant: Date | string, timeZone: string): { date: string; time: string } {
   const t = typeof instant === 'string' ? new Date(instant) : instant;
-  const f = new Intl.DateTimeFormat('en-CA', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit' });
+  const f = formatter('local', timeZone);
   const p = Object.fromEntries(f.formatToParts(t).map((x) => [x.type, x.value]));
   return { date: `${p.year}-${p.month}-${p.day}`, time: `${p.hour}:${p.minute}` };
 }
