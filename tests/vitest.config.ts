@@ -10,6 +10,7 @@ export default defineConfig({
     environment: 'node',
     include: ['tests/unit/**/*.test.ts', 'tests/integration/**/*.test.ts'],
     setupFiles: ['tests/support/vitest-setup.ts'],
+    globalSetup: ['tests/support/global-setup.ts'],
     pool: 'forks',
     testTimeout: 20000,
     hookTimeout: 60000,

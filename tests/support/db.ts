@@ -18,6 +18,15 @@ export async function freshDatabase(options: { seed?: boolean } = {}) {
   }
   if (DATABASE_URL) await recreatePgDatabase(DATABASE_URL);
   else for (const f of [file, `${file}-wal`, `${file}-shm`]) fs.rmSync(f, { force: true });
+  // tests/support/global-setup.ts built SQLite templates once for the run: start from a copy.
+  const template = options.seed ? process.env.HEARTHMARK_TEST_SQLITE_SEEDED : process.env.HEARTHMARK_TEST_SQLITE_MIGRATED;
+  if (!DATABASE_URL && template && fs.existsSync(template)) {
+    fs.copyFileSync(template, file);
+    const uploads = process.env.HEARTHMARK_TEST_SQLITE_SEEDED_UPLOADS;
+    if (options.seed && uploads && fs.existsSync(uploads)) fs.cpSync(uploads, env().UPLOAD_DIR, { recursive: true });
+    await migrateLatest(db());
+    return db();
+  }
   await migrateLatest(db());
   if (options.seed) await seedDemo(db());
   return db();
