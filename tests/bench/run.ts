@@ -9,6 +9,9 @@ import path from 'node:path';
 import { adoptFigures, allFigures, writeResults } from './report';
 import { runVerdictBench } from './verdicts';
 import { benchSyncThroughput } from './http';
+import { benchOfflineDrain } from './drain';
+import { benchPrecache, benchWeight, checkInstallable, launch } from './browser';
+import { benchLighthouse } from './lighthouse';
 import { ENGINEER, seedBenchVisits } from './fixtures';
 import { BASE_URL, BENCH_STACK, benchKnex, distDir, ensureBuild, startBenchStack } from './stack';
 import { stackEnv } from '../../scripts/stack';
@@ -68,13 +71,15 @@ async function main(): Promise<void> {
   await stage('verdicts', () => runVerdictBench(smoke ? 1_000 : 10_000, smoke ? 2 : 5));
 
   await stage('scale', () =>
-    runChild('tests/bench/scale.ts', [smoke ? 'smoke' : 'full', smoke ? '5' : '40'], {
+    runChild('tests/bench/scale.ts', [smoke ? 'smoke' : 'full', smoke ? '3' : '5'], {
       DATABASE_FILE: BENCH_STACK.databaseFile.replace(/\.db$/, '-scale.db'),
       UPLOAD_DIR: `${BENCH_STACK.uploadDir}-scale`,
     }),
   );
 
-  const needsServer = ['http', 'pdf'].some(wanted);
+  await stage('precache', () => benchPrecache({ distDir: distDir() }));
+
+  const needsServer = ['http', 'pdf', 'weight', 'drain', 'pwa', 'lighthouse'].some(wanted);
   let stopStack: (() => void) | null = null;
   try {
     if (needsServer) {
@@ -90,6 +95,29 @@ async function main(): Promise<void> {
           await benchSyncThroughput({ baseUrl: BASE_URL, cookie, visits, knex, seconds: smoke ? 1 : 10, connections: 20, smoke });
         });
 
+        // The engineer's screens need a visit of theirs: one of today's, seeded above the demo's.
+        const [screenVisit] = await seedBenchVisits(knex, { count: 1, label: 'SCREEN' });
+        await stage('weight', async () => {
+          const browser = await launch();
+          try {
+            await benchWeight({ browser, baseUrl: BASE_URL, cookie, visitId: screenVisit!.visitId });
+          } finally {
+            await browser.close();
+          }
+        });
+        await stage('pwa', async () => {
+          const browser = await launch();
+          try {
+            await checkInstallable({ browser, baseUrl: BASE_URL, cookie });
+          } finally {
+            await browser.close();
+          }
+        });
+        await stage('drain', async () => {
+          const visits = await seedBenchVisits(knex, { count: smoke ? 5 : 300, label: 'DRAIN' });
+          await benchOfflineDrain({ baseUrl: BASE_URL, cookie, visits, knex, smoke });
+        });
+        if (!smoke) await stage('lighthouse', () => benchLighthouse({ baseUrl: BASE_URL, cookie, visitId: screenVisit!.visitId }));
         await stage('pdf', () => runChild('tests/bench/pdf.ts', [BENCH_STACK.databaseFile, smoke ? '3' : '15', smoke ? 'smoke' : 'full']));
       } finally {
         await knex.destroy();

@@ -1,0 +1,142 @@
+// Browser figures with Playwright on Debian's Chromium: gzipped JavaScript the visit screen loads on
+// first load against the sign-in page (a bare baseline page) in the same run, the service worker's
+// precache size, and whether the PWA is installable (manifest + a registered service worker).
+import fs from 'node:fs';
+import path from 'node:path';
+import zlib from 'node:zlib';
+import { chromium, type Browser, type BrowserContext } from '@playwright/test';
+import { record } from './report';
+
+export const CHROMIUM = { executablePath: '/usr/bin/chromium', args: ['--no-sandbox', '--disable-dev-shm-usage'] };
+
+type Script = { url: string; bytes: number; gzipBytes: number };
+
+export async function launch(): Promise<Browser> {
+  return chromium.launch(CHROMIUM);
+}
+
+export async function sessionContext(browser: Browser, baseUrl: string, cookie: string | null): Promise<BrowserContext> {
+  const context = await browser.newContext({ viewport: { width: 412, height: 823 }, isMobile: true, hasTouch: true });
+  if (cookie) {
+    const [name, ...rest] = cookie.split('=');
+    await context.addCookies([{ name: name!, value: rest.join('='), url: baseUrl, httpOnly: true, sameSite: 'Lax' }]);
+  }
+  return context;
+}
+
+/** Every script a first load (cold cache) fetches, with its size gzipped here at the default level. */
+async function firstLoadScripts(context: BrowserContext, url: string): Promise<Script[]> {
+  const page = await context.newPage();
+  const pending: Array<Promise<Script | null>> = [];
+  page.on('response', (res) => {
+    if (res.request().resourceType() !== 'script') return;
+    pending.push(
+      res
+        .body()
+        .then((body) => ({ url: res.url(), bytes: body.length, gzipBytes: zlib.gzipSync(body).length }))
+        .catch(() => null),
+    );
+  });
+  const res = await page.goto(url, { waitUntil: 'networkidle' });
+  if (!res || res.status() >= 400) throw new Error(`${url} answered ${res?.status()}`);
+  const finalUrl = page.url();
+  await page.close();
+  if (new URL(finalUrl).pathname !== new URL(url).pathname) throw new Error(`${url} redirected to ${finalUrl}: not signed in?`);
+  return (await Promise.all(pending)).filter((s): s is Script => s !== null);
+}
+
+const kB = (n: number) => n / 1000;
+
+export async function benchWeight(input: { browser: Browser; baseUrl: string; cookie: string; visitId: string }): Promise<void> {
+  const anonymous = await sessionContext(input.browser, input.baseUrl, null);
+  const baseline = await firstLoadScripts(anonymous, `${input.baseUrl}/sign-in`);
+  await anonymous.close();
+  const engineer = await sessionContext(input.browser, input.baseUrl, input.cookie);
+  const visit = await firstLoadScripts(engineer, `${input.baseUrl}/field/visits/${input.visitId}`);
+  await engineer.close();
+  const total = (list: Script[]) => list.reduce((a, s) => a + s.gzipBytes, 0);
+  const value = kB(total(visit));
+  const base = kB(total(baseline));
+  const largest = [...visit].sort((a, b) => b.gzipBytes - a.gzipBytes).slice(0, 5).map((s) => `${path.basename(new URL(s.url).pathname)} ${kB(s.gzipBytes).toFixed(1)} kB`);
+  record({
+    name: 'weight.visit_screen_first_load_js_gzip',
+    value,
+    unit: 'kB',
+    target: '≤ 230 kB',
+    pass: value <= 230,
+    baseline: { name: 'sign-in page', value: base, unit: 'kB' },
+    ratio: value / base,
+    note: `${visit.length} scripts (sign-in ${baseline.length}); largest: ${largest.join(', ')}`,
+  });
+}
+
+/** The worker's precache list (Serwist injects it into the built worker file) and the bytes it lists. */
+export function benchPrecache(input: { distDir: string }): void {
+  const swFile = input.distDir === '.next' ? 'sw.js' : `sw-${input.distDir.replace(/[^a-z0-9]+/gi, '')}.js`;
+  const file = path.join('public', swFile);
+  if (!fs.existsSync(file)) {
+    record({ name: 'weight.precache_total', value: NaN, unit: 'MB', target: '≤ 1.5 MB', pass: false, note: `no service worker at ${file}: this build has no Serwist worker (it needs \`next build --webpack\` with @serwist/next configured)` });
+    return;
+  }
+  const source = fs.readFileSync(file, 'utf8');
+  const urls = [...new Set([...source.matchAll(/url:\s*"([^"]+)"|"url":\s*"([^"]+)"/g)].map((m) => m[1] ?? m[2]!))];
+  let bytes = 0;
+  let gzipBytes = 0;
+  const missing: string[] = [];
+  const sizes: Array<[string, number]> = [];
+  for (const url of urls) {
+    const local = url.startsWith('/_next/') ? path.join(input.distDir, url.slice('/_next/'.length)) : path.join('public', url);
+    if (!fs.existsSync(local) || fs.statSync(local).isDirectory()) {
+      missing.push(url);
+      continue;
+    }
+    const body = fs.readFileSync(local);
+    bytes += body.length;
+    gzipBytes += zlib.gzipSync(body).length;
+    sizes.push([url, body.length]);
+  }
+  const largest = sizes.sort((a, b) => b[1] - a[1]).slice(0, 5).map(([u, n]) => `${path.basename(u)} ${(n / 1000).toFixed(0)} kB`);
+  const mb = bytes / 1e6;
+  record({
+    name: 'weight.precache_total',
+    value: mb,
+    unit: 'MB',
+    target: '≤ 1.5 MB',
+    pass: mb <= 1.5,
+    note: `${urls.length} entries in ${file}, ${(gzipBytes / 1e6).toFixed(2)} MB gzipped${missing.length ? `; ${missing.length} pages/routes not on disk (${missing.slice(0, 3).join(', ')})` : ''}; largest: ${largest.join(', ')}`,
+  });
+}
+
+/** Installable: a linked manifest with name, icons and start_url, and a service worker that registers on /field. */
+export async function checkInstallable(input: { browser: Browser; baseUrl: string; cookie: string }): Promise<void> {
+  const context = await sessionContext(input.browser, input.baseUrl, input.cookie);
+  const page = await context.newPage();
+  await page.goto(`${input.baseUrl}/field`, { waitUntil: 'networkidle' });
+  const manifestHref = await page.locator('link[rel="manifest"]').first().getAttribute('href').catch(() => null);
+  let manifestOk = false;
+  let manifestNote = 'no <link rel="manifest">';
+  if (manifestHref) {
+    const res = await page.request.get(new URL(manifestHref, input.baseUrl).toString());
+    const m = (await res.json().catch(() => ({}))) as { name?: string; short_name?: string; start_url?: string; display?: string; icons?: Array<{ sizes?: string }> };
+    const big = (m.icons ?? []).some((i) => (i.sizes ?? '').split(' ').some((s) => Number(s.split('x')[0]) >= 512));
+    manifestOk = res.ok() && Boolean(m.name || m.short_name) && Boolean(m.start_url) && ['standalone', 'fullscreen', 'minimal-ui'].includes(m.display ?? '') && big;
+    manifestNote = `manifest ${manifestHref}: name ${m.short_name ?? m.name}, display ${m.display}, start_url ${m.start_url}, 512 px icon ${big}`;
+  }
+  const sw = await page
+    .evaluate(async () => {
+      if (!('serviceWorker' in navigator)) return 'unsupported';
+      const ready = await Promise.race([navigator.serviceWorker.ready.then((r) => r.active?.scriptURL ?? 'registered'), new Promise<string>((r) => setTimeout(() => r('none'), 15_000))]);
+      return ready;
+    })
+    .catch((err: Error) => `error ${err.message}`);
+  await context.close();
+  const swOk = !['unsupported', 'none'].includes(sw) && !sw.startsWith('error');
+  record({
+    name: 'pwa.installable',
+    value: manifestOk && swOk ? 1 : 0,
+    unit: 'bool',
+    target: 'manifest + service worker',
+    pass: manifestOk && swOk,
+    note: `${manifestNote}; service worker: ${sw}`,
+  });
+}
