@@ -77,14 +77,13 @@ async function main(): Promise<void> {
     }),
   );
 
-  await stage('precache', () => benchPrecache({ distDir: distDir() }));
-
-  const needsServer = ['http', 'pdf', 'weight', 'drain', 'pwa', 'lighthouse'].some(wanted);
+  const needsServer = ['precache', 'http', 'pdf', 'weight', 'drain', 'pwa', 'lighthouse'].some(wanted);
   let stopStack: (() => void) | null = null;
   try {
     if (needsServer) {
       const build = await ensureBuild(args.has('--no-build'));
       if (build.built) console.log(`built ${distDir()} in ${build.seconds.toFixed(0)} s`);
+      await stage('precache', () => benchPrecache({ distDir: distDir() }));
       stopStack = (await startBenchStack()).stop;
       const knex = benchKnex();
       try {
