@@ -236,6 +236,7 @@ async function run(c: Case): Promise<void> {
   else tally.held += 1;
 }
 
+// The seed takes minutes on a busy machine, beyond the default hook timeout.
 beforeAll(async () => {
   const knex = await freshDatabase({ seed: true });
   await prepareSecurityData(knex);
@@ -250,7 +251,7 @@ beforeAll(async () => {
   ids.renewalRequest = (JSON.parse(request.text) as { request: { id: string } }).request.id;
   ids.photo = await uploadPhoto(ids.priyaVisit);
   if (!ids.feed || !ids.renewalRequest || !ids.photo) throw new Error('set-up rows were not created');
-});
+}, 240_000);
 afterAll(closeDb);
 
 async function uploadPhoto(visitId: string): Promise<string> {
@@ -280,7 +281,7 @@ describe('authorization matrix', () => {
     }
     const stale = TABLE.filter((e) => !listApiRoutes().some((r) => r.pattern === e.pattern)).map((e) => `${e.method} ${e.pattern}`);
     expect({ missing, stale }).toEqual({ missing: [], stale: [] });
-  });
+  }, 120_000);
 
   it('has at least 150 cases', () => {
     expect(CASES.length).toBeGreaterThanOrEqual(150);
@@ -292,11 +293,11 @@ describe('authorization matrix', () => {
     const after = await databaseFingerprint(db());
     const changed = Object.keys(before).filter((t) => before[t] !== after[t]);
     expect(changed, 'tables written by cases that must change nothing').toEqual([]);
-  });
+  }, 600_000);
 
   it('lets the owner through for writes without a body', async () => {
     for (const c of MUTATING) await run(c);
-  });
+  }, 120_000);
 
   afterAll(() => {
     console.log(`authorization matrix: tried ${tally.tried}, held ${tally.held}`);

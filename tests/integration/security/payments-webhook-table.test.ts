@@ -149,12 +149,13 @@ async function deliver(d: Delivery): Promise<number> {
   return res.status;
 }
 
+// The seed takes minutes on a busy machine, beyond the default hook timeout.
 beforeAll(async () => {
   fakes = await startBillingFakes();
   await freshDatabase({ seed: true });
   template = await db()('invoices').where({ organisation_id: demoIds.org }).whereNotNull('sent_at').whereNull('voided_at').orderBy('id').first();
   expect(Number(template.total_minor)).toBeGreaterThan(1000);
-});
+}, 240_000);
 afterAll(async () => {
   console.log(`payment webhook scenarios: tried ${tally.tried}, held ${tally.held} (plus 9 in tests/integration/billing/webhook.test.ts)`);
   await closeDb();
