@@ -40,15 +40,17 @@ export async function updateReminderSettings(actor: Actor, offsetsDays: number[]
 
 /**
  * The dates of each site's certified checks, in the organisation's time zone. Until certificates
- * exist this reads visits.certified_at of certified visits; switch this one function later.
+ * exist this reads certified visits (status 'certified', certified_at set); switch this one function later.
  */
 export async function certifiedChecks(organisationId: string, timeZone: string, siteId?: string): Promise<Map<string, IsoDate[]>> {
-  const q = db()('visits').where({ organisation_id: organisationId, status: 'certified' }).whereNotNull('certified_at').select('site_id', 'certified_at');
+  // The check date is when the engineer tested (arrival, else the booked start), not when the office
+  // later certified it: a certificate issued a week after the check still runs from the check.
+  const q = db()('visits').where({ organisation_id: organisationId, status: 'certified' }).whereNotNull('certified_at').select('site_id', 'certified_at', 'arrived_at', 'window_start');
   if (siteId) q.andWhere({ site_id: siteId });
   const out = new Map<string, IsoDate[]>();
   for (const r of await q) {
     const list = out.get(String(r.site_id)) ?? [];
-    list.push(dateInZone(new Date(toIso(r.certified_at)!), timeZone));
+    list.push(dateInZone(new Date(toIso(r.arrived_at) ?? toIso(r.window_start)!), timeZone));
     out.set(String(r.site_id), list);
   }
   return out;

@@ -22,7 +22,7 @@ test.describe('office operations', () => {
     await expect(page.getByRole('heading', { name: 'Book a visit' })).toBeVisible();
     // Validation comes from the same schema as the API.
     await page.getByRole('button', { name: 'Book visit' }).click();
-    await expect(page.getByText('Choose a site')).toBeVisible();
+    await expect(page.getByText('Choose a site', { exact: true })).toBeVisible();
     await page.screenshot({ path: shot('office-book-visit-errors'), fullPage: true });
 
     await page.getByLabel('Site').selectOption({ label: 'KB-1020 · ' + (await page.getByLabel('Site').locator('option', { hasText: 'KB-1020' }).textContent())!.split(' · ')[1] });
@@ -54,6 +54,7 @@ test.describe('office operations', () => {
     const signIn = new SignInPage(page);
     await signIn.open();
     await signIn.withPassword(ACCOUNTS.office.email, ACCOUNTS.office.password);
+    await expect(page).toHaveURL(/\/office$/);
     await page.goto('/office/renewals');
     await expect(page.getByRole('heading', { name: 'Renewals', level: 1 })).toBeVisible();
     await expect(page.getByTestId('renewals-row').first()).toBeVisible();
@@ -73,6 +74,7 @@ test.describe('office operations', () => {
     const signIn = new SignInPage(page);
     await signIn.open();
     await signIn.withPassword(ACCOUNTS.office.email, ACCOUNTS.office.password);
+    await expect(page).toHaveURL(/\/office$/);
 
     await page.goto('/office/customers');
     await expect(page.getByTestId('customers-page')).toContainText('7 customers');
@@ -95,8 +97,8 @@ test.describe('office operations', () => {
     await page.screenshot({ path: shot('office-analysers'), fullPage: true });
 
     await page.goto('/office/users');
-    await page.getByLabel('Name').fill('Jonah Wexley');
-    await page.getByLabel('E-mail').fill('jonah.wexley@kilnbrook.test');
+    await page.getByLabel('Name', { exact: true }).fill('Jonah Wexley');
+    await page.getByLabel('E-mail', { exact: true }).fill('jonah.wexley@kilnbrook.test');
     await page.getByRole('button', { name: 'Send invitation' }).click();
     await expect(page.getByText('Invitation sent to jonah.wexley@kilnbrook.test.')).toBeVisible();
     await page.screenshot({ path: shot('office-users'), fullPage: true });

@@ -50,7 +50,7 @@ function VisitCard({ visit, timeZone, showEngineer }: { visit: Visit; timeZone: 
         e.dataTransfer.setData('text/x-visit', JSON.stringify({ id: visit.id, start: start.time, end: end.time }));
         e.dataTransfer.effectAllowed = 'move';
       }}
-      className={`rounded-lg border bg-white p-2 text-sm shadow-sm ${movable ? 'cursor-grab' : ''} ${muted ? 'border-dashed border-line opacity-80' : 'border-line'} ${visit.warnings.length ? 'border-l-4 border-l-service' : ''}`}
+      className={`rounded-lg border bg-white p-2 text-sm shadow-sm ${movable ? 'cursor-grab' : ''} ${muted ? 'border-dashed border-ink-soft' : 'border-line'} ${visit.warnings.length ? 'border-l-4 border-l-service' : ''}`}
       data-testid="board-visit"
     >
       <p className="font-bold tabular">
