@@ -1,5 +1,6 @@
 // Next.js settings for Hearthmark. Edit when a server-only package needs bundling rules
 // or a response header changes for every page.
+import withSerwistInit from '@serwist/next';
 
 /** Security headers sent with every response. The camera is allowed only under /field (photos), below. */
 const securityHeaders = [
@@ -46,4 +47,24 @@ const nextConfig = {
   },
 };
 
-export default nextConfig;
+const distDir = nextConfig.distDir;
+// Each build directory gets its own worker file, so builds side by side in one tree (NEXT_DIST_DIR)
+// never serve each other's precache list. The app registers it through window.serwist, which
+// @serwist/next points at this URL.
+const swFile = distDir === '.next' ? 'sw.js' : `sw-${distDir.replace(/[^a-z0-9]+/gi, '')}.js`;
+
+const withSerwist = withSerwistInit({
+  swSrc: 'app/sw.ts',
+  swDest: `public/${swFile}`,
+  swUrl: `/${swFile}`,
+  // Registered by the field app itself (app/(field)/field/_components/service-worker.tsx).
+  register: false,
+  reloadOnOnline: false,
+  cacheOnNavigation: false,
+  // Public files to precache, listed rather than globbed: another build's worker file must never be in the list.
+  additionalPrecacheEntries: ['/offline', '/manifest.webmanifest', '/icons/icon-192.png', '/icons/icon-512.png', '/icons/maskable-192.png'].map((url) => ({ url, revision: String(Date.now()) })),
+});
+
+// The worker is built by @serwist/next's webpack plugin, so production builds run `next build --webpack`.
+// `next dev` (Turbopack) gets the plain settings and no worker: service workers exist only after a build.
+export default process.env.NODE_ENV === 'production' ? withSerwist(nextConfig) : nextConfig;

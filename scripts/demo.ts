@@ -21,7 +21,8 @@ async function main() {
   const skipBuild = process.argv.includes('--no-build') && fs.existsSync(path.join('.next', 'BUILD_ID'));
   if (!skipBuild) {
     console.log('Building the app (about two minutes on a 2-core machine)…');
-    await runToEnd(path.join('node_modules', '.bin', 'next'), ['build'], {});
+    // --webpack: the field app's service worker is built by @serwist/next's webpack plugin.
+    await runToEnd(path.join('node_modules', '.bin', 'next'), ['build', '--webpack'], {});
   }
   console.log('Migrating and seeding the demo scenario…');
   fs.rmSync(options.mailDir, { recursive: true, force: true });

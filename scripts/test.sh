@@ -29,7 +29,7 @@ step "integration tests on PostgreSQL and the S3 fake"
 # Starts (and installs when missing) a throwaway PostgreSQL server; see scripts/pg-test.ts.
 npx tsx scripts/pg-test.ts
 step "production build"
-npx next build
+npx next build --webpack
 step "end-to-end tests"
 npx playwright test -c tests/e2e/playwright.config.ts
 step "done"

@@ -31,7 +31,8 @@ export function formatPower(kw: number | null | undefined, unit: PowerDisplayUni
   return unit === 'Btu/h' ? `${Math.round(kw * BTU_PER_H_PER_KW).toLocaleString('en-GB')} Btu/h` : `${kw.toFixed(2)} kW`;
 }
 
-/** The CO/CO2 ratio as written in the trade: 0.0040, never a percentage. */
+/** The CO/CO2 ratio as written in the trade: 0.0040, never a percentage; small ones keep two significant figures. */
 export function formatRatio(ratio: number | null | undefined): string {
-  return isUsable(ratio) ? ratio.toFixed(4) : '—';
+  if (!isUsable(ratio)) return '—';
+  return Math.abs(ratio) < 0.001 ? ratio.toFixed(5) : ratio.toFixed(4);
 }
