@@ -379,6 +379,8 @@ export type VisitReport = {
     noAccessAt: string | null;
     noAccessNote: string | null;
     overallVerdict: VerdictLevel | null;
+    /** Room CO and the tightness test, judged once for the installation on submit. */
+    installationVerdict: Verdict | null;
     engineerName: string | null;
     date: string;
   };
@@ -422,6 +424,7 @@ export async function getVisitReport(input: { organisationId: string; visitId: s
       noAccessAt: toIso(v.no_access_at),
       noAccessNote: (v.no_access_note as string | null) ?? null,
       overallVerdict: (v.overall_verdict as VerdictLevel | null) ?? null,
+      installationVerdict: parseJson<Verdict | null>(v.installation_verdict_json, null),
       engineerName: (v.engineer_name as string | null) ?? null,
       date: localDate(arrived ?? toIso(v.window_start) ?? new Date().toISOString(), timeZone),
     },
