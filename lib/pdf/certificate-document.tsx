@@ -22,6 +22,7 @@ const s = StyleSheet.create({
   outcome: { flexDirection: 'row', borderWidth: 1, borderColor: PDF_COLOURS.line, borderRadius: 4, padding: 10, marginBottom: 12 },
   outcomeMain: { flexGrow: 1, flexBasis: 0, paddingRight: 10 },
   bigLabel: { fontSize: 8, fontWeight: 700, color: PDF_COLOURS.inkSoft, textTransform: 'uppercase', letterSpacing: 0.6, marginBottom: 3 },
+  outcomeLine: { marginTop: 4, fontSize: 9.5 },
   dates: { flexDirection: 'row', marginTop: 8 },
   date: { marginRight: 24 },
   dateValue: { fontSize: 12, fontWeight: 700 },
@@ -55,6 +56,14 @@ function formatDate(iso: string): string {
   const [y, m, d] = iso.slice(0, 10).split('-').map(Number);
   return new Date(Date.UTC(y!, m! - 1, d!)).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
 }
+
+/** What the overall mark means, in words a landlord or tenant reads without an engineer beside them. */
+const OUTCOME_LINES: Record<CertificateContent['overall'], string> = {
+  clear: 'Every appliance tested was within its limits.',
+  service: 'Service or repair is advised; the appliances and findings below say what.',
+  danger: 'Something was found dangerous and made safe. Do not use it until it has been repaired; see the findings below.',
+  unknown: 'Some figures could not be judged against a limit; the appliances below say which.',
+};
 
 function cap(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
@@ -164,6 +173,7 @@ export function CertificateDocument({ content: c, qrDataUrl, voided }: { content
           <View style={s.outcomeMain}>
             <Text style={s.bigLabel}>Outcome of this visit</Text>
             <PdfVerdictMark level={c.overall} size={13} />
+            <Text style={[s.outcomeLine, c.overall === 'danger' ? { color: PDF_COLOURS.danger, fontWeight: 700 } : {}]}>{OUTCOME_LINES[c.overall]}</Text>
             <View style={s.dates}>
               <View style={s.date}>
                 <Text style={s.bigLabel}>Issued</Text>

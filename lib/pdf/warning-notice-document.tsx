@@ -2,7 +2,7 @@ import 'server-only';
 // The one-page notice left with the occupant for each danger finding: what was found, what the
 // engineer did, what they must not do, and whom to call. Written for someone who is not an
 // engineer, in plain words; printed on site from the field app or sent with the certificate.
-import { Document, Page, StyleSheet, Text, View, renderToBuffer } from '@react-pdf/renderer';
+import { Circle, Document, Page, Path, StyleSheet, Svg, Text, View, renderToBuffer } from '@react-pdf/renderer';
 import { CAUTION_LINES, HIGH_ROOM_CO_ADVICE } from '@/components/safety/caution';
 import { PDF_FONT, registerPdfFonts } from './fonts';
 import { PdfGlyph } from './page-header';
@@ -30,7 +30,8 @@ const s = StyleSheet.create({
   page: { fontFamily: PDF_FONT, fontSize: 10.5, color: PDF_COLOURS.ink, padding: PDF_PAGE.margin },
   top: { flexDirection: 'row', alignItems: 'center', marginBottom: 12 },
   org: { marginLeft: 8, flexGrow: 1 },
-  banner: { backgroundColor: PDF_COLOURS.danger, color: '#ffffff', padding: 12, borderRadius: 4, marginBottom: 14 },
+  banner: { flexDirection: 'row', alignItems: 'center', backgroundColor: PDF_COLOURS.danger, color: '#ffffff', padding: 12, borderRadius: 4, marginBottom: 14 },
+  bannerText: { flexGrow: 1, flexBasis: 0, marginLeft: 12 },
   bannerTitle: { fontSize: 22, fontWeight: 700 },
   bannerSub: { fontSize: 12, marginTop: 3 },
   section: { marginBottom: 11 },
@@ -76,8 +77,16 @@ export function WarningNoticeDocument({ notice: n }: { notice: WarningNoticeInpu
         </View>
 
         <View style={s.banner}>
-          <Text style={s.bannerTitle}>WARNING: DO NOT USE</Text>
-          <Text style={s.bannerSub}>{n.finding.applianceLabel ? `${n.finding.applianceLabel} is not safe to use.` : 'Part of the gas or oil installation here is not safe to use.'}</Text>
+          {/* The danger octagon of the verdict marks, so a black-and-white copy still reads as a stop sign. */}
+          <Svg width={40} height={40} viewBox="0 0 20 20">
+            <Path d="M6 1h8l5 5v8l-5 5H6l-5-5V6z" fill="#ffffff" />
+            <Path d="M10 5v6" stroke={PDF_COLOURS.danger} strokeWidth={2.6} />
+            <Circle cx={10} cy={14.6} r={1.5} fill={PDF_COLOURS.danger} />
+          </Svg>
+          <View style={s.bannerText}>
+            <Text style={s.bannerTitle}>DANGER: DO NOT USE</Text>
+            <Text style={s.bannerSub}>{n.finding.applianceLabel ? `${n.finding.applianceLabel} is not safe to use.` : 'Part of the gas or oil installation here is not safe to use.'}</Text>
+          </View>
         </View>
 
         <View style={s.section}>
@@ -90,7 +99,9 @@ export function WarningNoticeDocument({ notice: n }: { notice: WarningNoticeInpu
           <Text>{n.finding.actionLabel}.</Text>
           {n.madeSafe ? (
             <Text>
-              {n.madeSafe.madeSafeByLabel}. You {n.madeSafe.consent === 'given' ? 'agreed to this' : 'did not agree to this'}
+              {/* The action and the make-safe step are often the same words; say them once. */}
+              {n.madeSafe.madeSafeByLabel === n.finding.actionLabel ? '' : `${n.madeSafe.madeSafeByLabel}. `}
+              You {n.madeSafe.consent === 'given' ? 'agreed to this' : 'did not agree to this'}
               {n.madeSafe.refusalNote ? ` (${n.madeSafe.refusalNote})` : ''}.
             </Text>
           ) : null}

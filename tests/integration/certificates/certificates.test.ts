@@ -4,6 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { createHash } from 'node:crypto';
 import { extractText, getDocumentProxy } from 'unpdf';
+import { cloneElement, type ReactElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { freshDatabase } from '@/tests/support/db';
 import { get, params, postJson, signInAs } from '@/tests/support/session';
@@ -66,8 +67,9 @@ async function checkPage(token: string): Promise<string> {
     const el = node as { type: unknown; props: Record<string, unknown> };
     if (typeof el.type === 'function' && el.type.constructor.name === 'AsyncFunction') return resolveTree(await (el.type as (p: unknown) => Promise<unknown>)(el.props));
     if (el.props?.children) {
-      const children = Array.isArray(el.props.children) ? await Promise.all(el.props.children.map(resolveTree)) : await resolveTree(el.props.children);
-      return { ...el, props: { ...el.props, children } };
+      // Handed back as separate arguments, the children stay the fixed list JSX wrote (no keys needed).
+      const children = Array.isArray(el.props.children) ? await Promise.all(el.props.children.map(resolveTree)) : [await resolveTree(el.props.children)];
+      return cloneElement(node as ReactElement, undefined, ...(children as ReactElement[]));
     }
     return node;
   };
@@ -159,7 +161,7 @@ describe('issuing a certificate', () => {
     const res = await noticeRoute.GET(get(`/api/v1/visits/${dangerVisit}/warning-notices/${danger.id}/pdf`), params({ id: dangerVisit, findingId: danger.id }));
     expect(res.status).toBe(200);
     const text = await pdfText(res);
-    expect(text).toContain('WARNING: DO NOT USE');
+    expect(text).toContain('DANGER: DO NOT USE');
     expect(text).toContain('flue found partly blocked');
     expect(text).toContain('Kilnbrook Heating Safety Ltd');
     signInAs(tomasz);

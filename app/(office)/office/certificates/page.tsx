@@ -5,9 +5,14 @@ import { listCertificates } from '@/db/certificates';
 import { listRenewalRequests } from '@/db/renewal-requests';
 import { CertificateStatusBadge } from '@/components/certificates/certificate-status-badge';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
+import { SafetyCaution } from '@/components/safety/caution';
 import { CloseRequestButton } from './_components/close-request-button';
 
 export const metadata: Metadata = { title: 'Certificates' };
+
+function shortDate(iso: string): string {
+  return new Date(`${iso.slice(0, 10)}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
+}
 
 export default async function CertificatesPage({ searchParams }: { searchParams: Promise<{ status?: string }> }) {
   const user = await requirePageRole(['office']);
@@ -49,16 +54,18 @@ export default async function CertificatesPage({ searchParams }: { searchParams:
         {items.map((c) => (
           <li key={c.id}>
             <Link href={`/office/certificates/${c.id}`} className="flex flex-wrap items-center gap-x-3 gap-y-1 rounded-xl border border-line bg-card p-3 shadow-sm hover:border-copper" data-testid="certificate-item">
-              <span className="min-w-0 flex-1">
+              <span className="min-w-0 basis-full sm:basis-0 sm:flex-1">
                 <span className="block font-bold">{c.numberText}</span>
-                <span className="block text-sm text-ink-soft">{c.address}, {c.town} · issued {c.issuedOn} · valid until {c.expiresOn}</span>
+                <span className="block text-sm text-ink-soft">{c.address}, {c.town}</span>
+                <span className="block text-sm text-ink-soft">Issued {shortDate(c.issuedOn)} · valid until {shortDate(c.expiresOn)}</span>
               </span>
-              <VerdictBadge level={c.overallVerdict} size="sm" />
               <CertificateStatusBadge status={c.status} />
+              <VerdictBadge level={c.overallVerdict} size="sm" />
             </Link>
           </li>
         ))}
       </ul>
+      <SafetyCaution compact />
     </div>
   );
 }

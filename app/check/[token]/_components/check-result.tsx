@@ -4,7 +4,7 @@ import type { CertificateStatus } from '@/lib/certificates/types';
 const STATUS: Record<CertificateStatus, { word: string; line: string; tone: string; icon: string }> = {
   valid: { word: 'Valid', line: 'This certificate is genuine and in date.', tone: 'border-clear bg-clear-soft text-clear', icon: '✓' },
   expired: { word: 'Expired', line: 'This certificate is genuine but its period has ended. The appliances are due a new check.', tone: 'border-service bg-service-soft text-service', icon: '!' },
-  void: { word: 'Void', line: 'This certificate was withdrawn by the issuer and must not be relied on. Ask the landlord for the current one.', tone: 'border-danger bg-danger-soft text-danger', icon: '✕' },
+  void: { word: 'Void', line: 'This certificate was withdrawn by the issuer and must not be relied on. Ask whoever gave it to you for the current one.', tone: 'border-danger bg-danger-soft text-danger', icon: '✕' },
 };
 
 function formatDate(iso: string): string {

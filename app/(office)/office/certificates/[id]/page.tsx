@@ -13,6 +13,14 @@ import { CertificateActions } from './_components/certificate-actions';
 
 export const metadata: Metadata = { title: 'Certificate' };
 
+function longDate(iso: string): string {
+  return new Date(`${iso.slice(0, 10)}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
+}
+
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
 export default async function CertificatePage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ issued?: string }> }) {
   const user = await requirePageRole(['office']);
   const { id } = await params;
@@ -21,6 +29,7 @@ export default async function CertificatePage({ params, searchParams }: { params
   if (!c) notFound();
   const deliveries = await listCertificateDeliveries({ organisationId: user.organisationId, certificateId: c.id });
   const content = c.content;
+  const roomCoHigh = content.roomChecks.some((r) => r.level === 'service' || r.level === 'danger');
   return (
     <div className="flex flex-col gap-4" data-testid="certificate-page">
       {issued ? <Alert tone="success" title={`Certificate ${c.numberText} issued`}>{deliveries.length ? `E-mailed to ${deliveries.filter((d) => d.status === 'sent').map((d) => d.email).join(', ') || 'nobody (every send failed; resend below)'}.` : 'No e-mail address on the site to send to.'}</Alert> : null}
@@ -30,12 +39,14 @@ export default async function CertificatePage({ params, searchParams }: { params
           <h1 className="text-2xl font-bold" data-testid="certificate-number">{c.numberText}</h1>
           <p className="text-ink-soft">{c.address}, {c.town} {c.postcode} · {c.siteReference}</p>
         </div>
-        <CertificateStatusBadge status={c.status} />
-        <VerdictBadge level={c.overallVerdict} />
       </div>
+      <dl className="flex flex-wrap items-center gap-x-4 gap-y-2" data-testid="certificate-standing">
+        <div className="flex items-center gap-2"><dt className="text-sm text-ink-soft">Certificate</dt><dd><CertificateStatusBadge status={c.status} /></dd></div>
+        <div className="flex items-center gap-2"><dt className="text-sm text-ink-soft">Outcome of the visit</dt><dd><VerdictBadge level={c.overallVerdict} /></dd></div>
+      </dl>
       {c.voidedAt ? (
         <Alert tone="error" title="Void">
-          Voided {new Date(c.voidedAt).toLocaleDateString('en-GB')} by {c.voidedByName ?? 'the office'}: {c.voidReason}
+          Voided {longDate(c.voidedAt)} by {c.voidedByName ?? 'the office'}: {c.voidReason}
           {c.replacedById ? (
             <> Replaced by <Link className="font-semibold underline" href={`/office/certificates/${c.replacedById}`}>{c.replacedByNumberText}</Link>.</>
           ) : ' Not re-issued yet: the visit is back in the review queue.'}
@@ -44,9 +55,9 @@ export default async function CertificatePage({ params, searchParams }: { params
       {c.replacesId ? <p>Corrects and replaces <Link className="font-semibold text-copper underline" href={`/office/certificates/${c.replacesId}`}>{c.replacesNumberText}</Link> (void).</p> : null}
 
       <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 rounded-xl border border-line bg-card p-3">
-        <dt className="text-ink-soft">Checked</dt><dd>{content.visit.date} by {content.engineer.name}{content.engineer.registrationNumber ? ` (reg. ${content.engineer.registrationNumber})` : ''}</dd>
-        <dt className="text-ink-soft">Issued</dt><dd>{c.issuedOn} by {c.issuedByName ?? content.issuedBy}</dd>
-        <dt className="text-ink-soft">Valid until</dt><dd>{c.expiresOn}</dd>
+        <dt className="text-ink-soft">Checked</dt><dd>{longDate(content.visit.date)} by {content.engineer.name}{content.engineer.registrationNumber ? ` (reg. ${content.engineer.registrationNumber})` : ''}</dd>
+        <dt className="text-ink-soft">Issued</dt><dd>{longDate(c.issuedOn)} by {c.issuedByName ?? content.issuedBy}</dd>
+        <dt className="text-ink-soft">Valid until</dt><dd>{longDate(c.expiresOn)}</dd>
         <dt className="text-ink-soft">PDF SHA-256</dt><dd className="break-all font-mono text-xs">{c.pdfSha256}</dd>
         <dt className="text-ink-soft">Check page</dt><dd className="break-all text-sm"><a className="text-copper underline" href={content.checkUrl}>{content.checkUrl}</a></dd>
       </dl>
@@ -59,7 +70,7 @@ export default async function CertificatePage({ params, searchParams }: { params
           {content.appliances.map((a) => (
             <li key={a.applianceId} className="flex flex-col gap-1">
               <span className="flex flex-wrap items-center gap-2"><VerdictBadge level={a.tested ? a.level : 'unknown'} size="sm" /><span className="font-semibold">{a.label}</span></span>
-              <span className="text-sm text-ink-soft">{a.decidedBy ? a.decidedBy.explanation : a.tested ? 'Every judged figure is within its limit.' : `Not tested${a.notTestedReason ? `: ${a.notTestedReason}` : ''}`}</span>
+              <span className="text-sm text-ink-soft">{a.decidedBy ? sentence(a.decidedBy.explanation) : a.tested ? 'Every judged figure is within its limit.' : `Not tested${a.notTestedReason ? `: ${a.notTestedReason}` : ''}`}</span>
             </li>
           ))}
         </ul>
@@ -70,7 +81,7 @@ export default async function CertificatePage({ params, searchParams }: { params
           <h2 id="notices" className="text-xl font-bold text-danger">Warning notices</h2>
           <ul className="mt-1 flex flex-col gap-1">
             {c.notices.map((n) => (
-              <li key={n.findingId}><a className="font-semibold text-copper underline" href={`/api/v1/visits/${c.visitId}/warning-notices/${n.findingId}/pdf`}>{n.description.slice(0, 80)} (PDF)</a></li>
+              <li key={n.findingId}><a className="font-semibold text-copper underline" href={`/api/v1/visits/${c.visitId}/warning-notices/${n.findingId}/pdf`}>Warning notice (PDF): {n.description}</a></li>
             ))}
           </ul>
         </section>
@@ -89,7 +100,7 @@ export default async function CertificatePage({ params, searchParams }: { params
         </ul>
         <p className="mt-2 text-sm"><Link className="text-copper underline" href={`/office/review/${c.visitId}`}>Open the visit record</Link></p>
       </section>
-      <SafetyCaution compact />
+      <SafetyCaution compact={!roomCoHigh && c.overallVerdict !== 'danger'} showRoomCoAdvice={roomCoHigh || c.overallVerdict === 'danger'} />
     </div>
   );
 }

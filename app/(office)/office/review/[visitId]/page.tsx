@@ -151,7 +151,7 @@ export default async function ReviewVisitPage({ params }: { params: Promise<{ vi
           <div className="mt-1 flex flex-col gap-1">
             <p>{content.signoff.declarationText}</p>
             <p className="text-sm text-ink-soft">
-              {content.signoff.signed ? `Signed by ${content.signoff.occupantName ?? 'the occupant'}.` : `No signature: ${content.signoff.noSignatureReason ?? 'no reason given'}.`}
+              {content.signoff.signed ? `Signed by ${content.signoff.occupantName ?? 'the occupant'}.` : `No signature: ${(content.signoff.noSignatureReason ?? 'no reason given').replace(/\.+$/, '')}.`}
             </p>
             {bundle.signature?.photoId ? (
               // eslint-disable-next-line @next/next/no-img-element -- streamed through the session-checked API, not static

@@ -14,6 +14,14 @@ import { BookRenewal } from './_components/book-renewal';
 
 export const metadata: Metadata = { title: 'Property' };
 
+/** The outcome of the last check in plain words; a danger is never left as a badge alone. */
+const OUTCOME_LINES = {
+  clear: 'Every appliance tested was within its limits.',
+  service: 'Service or repair is advised: see the remedial work below.',
+  danger: 'Something was found dangerous and made safe. It must not be used until it has been repaired: see the remedial work below.',
+  unknown: 'Some figures could not be judged against a limit; the certificate says which.',
+} as const;
+
 function formatDate(iso: string): string {
   return new Date(`${iso}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
 }
@@ -44,6 +52,7 @@ export default async function PortalSitePage({ params }: { params: Promise<{ id:
             </p>
             <p>{current.status === 'expired' ? 'Expired on' : 'Valid until'} <strong>{formatDate(current.expiresOn)}</strong> · issued {formatDate(current.issuedOn)}</p>
             <p className="flex flex-wrap items-center gap-2 text-sm">Outcome of the check: <VerdictBadge level={current.overallVerdict} size="sm" /></p>
+            <p className={current.overallVerdict === 'danger' ? 'font-semibold text-danger' : 'text-sm'} data-testid="portal-outcome">{OUTCOME_LINES[current.overallVerdict]}</p>
             <a className={buttonClass('primary', 'self-start')} href={`/api/v1/certificates/${current.id}/pdf?download=1`} data-testid="download-current">Download certificate (PDF)</a>
           </div>
         ) : (

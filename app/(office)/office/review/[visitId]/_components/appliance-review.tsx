@@ -5,6 +5,10 @@ import { VerdictBadge } from '@/components/ui/verdict-badge';
 
 type Photo = { id: string; caption: string | null };
 
+function sentence(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
 // One appliance as the office reviews it: details, analyser (and any override of its calibration
 // date), each reading with its derived figures, the verdict and every item's explanation.
 export function ApplianceReview({ appliance: a, photos, visitId }: { appliance: CertificateAppliance; photos: Photo[]; visitId: string }) {
@@ -69,7 +73,7 @@ export function ApplianceReview({ appliance: a, photos, visitId }: { appliance: 
       ) : null}
       {a.tested ? (
         <div className="mt-2 rounded-lg bg-paper p-2 text-sm">
-          <p className="font-semibold">{a.decidedBy ? a.decidedBy.explanation : 'Every judged figure is within its limit.'}</p>
+          <p className="font-semibold">{a.decidedBy ? sentence(a.decidedBy.explanation) : 'Every judged figure is within its limit.'}</p>
           {a.decidedBy?.source ? <p className="text-ink-soft">Source: {a.decidedBy.source}</p> : null}
           <details className="mt-1">
             <summary className="cursor-pointer font-semibold text-copper">Every rule applied ({a.items.length})</summary>
@@ -77,7 +81,7 @@ export function ApplianceReview({ appliance: a, photos, visitId }: { appliance: 
               {a.items.map((i) => (
                 <li key={`${i.metric}-${i.testPoint}-${i.subject}`} className="flex flex-wrap items-center gap-2">
                   <VerdictBadge level={i.level} size="sm" />
-                  <span>{i.explanation}</span>
+                  <span>{sentence(i.explanation)}</span>
                 </li>
               ))}
             </ul>
