@@ -87,7 +87,26 @@ export async function parseJson<T>(req: Request, schema: ZodType<T>): Promise<T>
   } catch {
     throw new AppError('bad_request', 'The request body is not valid JSON.');
   }
+  // PostgreSQL refuses NUL in text columns (a 500 at insert time); refuse it here for both databases.
+  if (containsNul(body)) throw new AppError('invalid_input', 'Text may not contain NUL characters.', { _: 'remove the NUL (\\u0000) characters' });
   const parsed = schema.safeParse(body);
   if (!parsed.success) throw new AppError('invalid_input', 'Some fields are not valid.', fieldsFromIssues(parsed.error.issues));
   return parsed.data;
+}
+
+/** Walks the parsed body without recursion (bodies may nest tens of thousands deep). */
+function containsNul(value: unknown): boolean {
+  const stack: unknown[] = [value];
+  while (stack.length) {
+    const v = stack.pop();
+    if (typeof v === 'string') {
+      if (v.includes('\u0000')) return true;
+    } else if (v && typeof v === 'object') {
+      for (const [k, child] of Object.entries(v)) {
+        if (k.includes('\u0000')) return true;
+        stack.push(child);
+      }
+    }
+  }
+  return false;
 }

@@ -183,6 +183,15 @@ describe('hostile JSON bodies', () => {
     expect(missing).toEqual([]);
   }, 120_000);
 
+  it('NUL characters in otherwise valid text are refused before they reach the database', async () => {
+    // PostgreSQL cannot store NUL in text; SQLite can, so only this check keeps both alike.
+    as(people().own.office);
+    const before = await counts();
+    const res = await callRoute({ pattern: 'customers', method: 'POST', body: JSON.stringify({ role: 'landlord', name: 'Nul\u0000Name', email: 'nul.name@example.test' }) });
+    expect(res.status).toBe(422);
+    expect(await counts()).toBe(before);
+  });
+
   it.each(TARGETS.map((t) => [`${t.method} ${t.pattern}`, t] as const))('%s', async (_label, target) => {
     const template = target.template(ids);
     const params = target.params?.(ids) ?? {};
