@@ -79,7 +79,8 @@ export function benchPrecache(input: { distDir: string }): void {
     return;
   }
   const source = fs.readFileSync(file, 'utf8');
-  const urls = [...new Set([...source.matchAll(/url:\s*"([^"]+)"|"url":\s*"([^"]+)"/g)].map((m) => m[1] ?? m[2]!))];
+  // The injected list is minified JavaScript: {'revision':…,'url':'/_next/…'} (quote style varies by build).
+  const urls = [...new Set([...source.matchAll(/['"]?url['"]?\s*:\s*['"]([^'"]+)['"]/g)].map((m) => m[1]!))];
   let bytes = 0;
   let gzipBytes = 0;
   const missing: string[] = [];
