@@ -153,6 +153,11 @@ const TABLE: Entry[] = [
   { pattern: 'visits/[id]/status', method: 'POST', roles: OFFICE, kind: 'item', params: id((i) => i.priyaVisit) },
   { pattern: 'visits/[id]/warning-notices/[findingId]/pdf', method: 'GET', roles: STAFF, kind: 'item', params: (i) => ({ id: i.findingVisit, findingId: i.finding }), perEngineer: true },
   { pattern: 'visits/board', method: 'GET', roles: OFFICE, kind: 'list', query: () => `from=${today}` },
+  // CSV exports of the office lists: another organisation gets its own file, never a row of ours.
+  ...(['analysers', 'appliances', 'audit', 'customers', 'renewals', 'sites', 'users'] as const).map((list): Entry => ({ pattern: `${list}/export`, method: 'GET', roles: OFFICE, kind: 'list' })),
+  // CSV imports: the own case is a preview (writes nothing) of a body that is not a sheet.
+  { pattern: 'sites/import', method: 'POST', roles: OFFICE, kind: 'plain', own: -1 },
+  { pattern: 'appliances/import', method: 'POST', roles: OFFICE, kind: 'plain', own: -1 },
 ];
 
 type Case = { label: string; entry: Entry; who: Who; scope: 'own' | 'otherOrg' | 'otherCustomer' | 'otherEngineer'; expect: number | 'not-auth' };
