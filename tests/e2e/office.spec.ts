@@ -25,8 +25,8 @@ test.describe('office operations', () => {
     await expect(page.getByText('Choose a site', { exact: true })).toBeVisible();
     await page.screenshot({ path: shot('office-book-visit-errors'), fullPage: true });
 
-    await page.getByLabel('Site').selectOption({ label: 'KB-1020 · ' + (await page.getByLabel('Site').locator('option', { hasText: 'KB-1020' }).textContent())!.split(' · ')[1] });
-    await page.getByLabel('Engineer').selectOption({ label: 'Priya Oduya' });
+    await page.getByLabel('Site', { exact: true }).selectOption({ label: 'KB-1020 · ' + (await page.getByLabel('Site', { exact: true }).locator('option', { hasText: 'KB-1020' }).textContent())!.split(' · ')[1] });
+    await page.getByLabel('Engineer', { exact: true }).selectOption({ label: 'Priya Oduya' });
     await page.getByLabel('Kind of visit').selectOption('breakdown');
     await page.getByLabel('From').fill('18:30');
     await page.getByLabel('To').fill('19:30');
