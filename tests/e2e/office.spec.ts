@@ -43,6 +43,7 @@ test.describe('office operations', () => {
     await page.screenshot({ path: shot('office-board-day'), fullPage: true });
 
     await page.getByRole('button', { name: 'Sign out' }).click();
+    await expect(page).toHaveURL(/\/sign-in/);
     await signIn.open();
     await signIn.withPassword(ACCOUNTS.engineer.email, ACCOUNTS.engineer.password);
     await expect(page).toHaveURL(/\/field$/);
