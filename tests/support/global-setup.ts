@@ -13,13 +13,13 @@ export default function setup() {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'hearthmark-templates-'));
   const tsx = path.join(root, 'node_modules/.bin/tsx');
   // The seed runs as the plain script it is, not under the test runner's settings.
-  const scriptEnv = Object.fromEntries(Object.entries(process.env).filter(([k]) => k !== 'NODE_ENV' && !k.startsWith('VITEST')));
+  const scriptEnv: Record<string, string | undefined> = Object.fromEntries(Object.entries(process.env).filter(([k]) => k !== 'NODE_ENV' && !k.startsWith('VITEST')));
   const build = (name: string, command: 'migrate' | 'reset') => {
     const file = path.join(dir, `${name}.db`);
     const uploads = path.join(dir, `${name}-uploads`);
     execFileSync(tsx, [path.join(root, 'scripts/db.ts'), command], {
       cwd: root,
-      env: { ...scriptEnv, HEARTHMARK_ENV: 'test', DATABASE_FILE: file, UPLOAD_DIR: uploads, NEXTAUTH_SECRET: 'test-secret-test-secret-test-secret-0123' },
+      env: { ...scriptEnv, HEARTHMARK_ENV: 'test', DATABASE_FILE: file, UPLOAD_DIR: uploads, NEXTAUTH_SECRET: 'test-secret-test-secret-test-secret-0123' } as unknown as NodeJS.ProcessEnv,
       stdio: 'inherit',
     });
     // A template is a single file: fold the WAL back in before it is copied.

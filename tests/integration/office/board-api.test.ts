@@ -148,12 +148,12 @@ describe('calendar feed', () => {
     expect(res.headers.get('content-type')).toContain('text/calendar');
     const text = await res.text();
     const parsed = ical.sync.parseICS(text);
-    const events = Object.values(parsed).filter((c) => c.type === 'VEVENT') as ical.VEvent[];
+    const events = Object.values(parsed).filter((c): c is ical.VEvent => c?.type === 'VEVENT');
     const mine = events.find((e) => e.uid === `${visit.id}@localhost`)!;
     expect(mine).toBeDefined();
     const stored = await db()('visits').where({ id: visit.id }).first();
     expect(new Date(mine.start).toISOString()).toBe(new Date(stored.window_start).toISOString());
-    expect(new Date(mine.end).toISOString()).toBe(new Date(stored.window_end).toISOString());
+    expect(new Date(mine.end!).toISOString()).toBe(new Date(stored.window_end).toISOString());
     expect(String(mine.summary)).toContain('KB-1011');
     expect(String(mine.description)).toBe('Ring the top bell');
     expect(text).toContain('X-WR-TIMEZONE:Europe/London');
@@ -162,9 +162,9 @@ describe('calendar feed', () => {
     const seqBefore = Number((mine as unknown as { sequence: string }).sequence);
     await db()('visits').where({ id: visit.id }).update({ window_start: minute(Date.now() + 4 * 86400_000), window_end: minute(Date.now() + 4 * 86400_000 + 3600_000), updated_at: new Date(Date.now() + 5000).toISOString() });
     const again = ical.sync.parseICS(await (await icsRoute.GET(get(url), params({ token }))).text());
-    const moved = (Object.values(again).filter((c) => c.type === 'VEVENT') as ical.VEvent[]).filter((e) => e.uid === `${visit.id}@localhost`);
+    const moved = Object.values(again).filter((c): c is ical.VEvent => c?.type === 'VEVENT').filter((e) => e.uid === `${visit.id}@localhost`);
     expect(moved).toHaveLength(1);
-    expect(new Date(moved[0].start).getTime()).toBeGreaterThan(new Date(mine.start).getTime());
+    expect(new Date(moved[0]!.start).getTime()).toBeGreaterThan(new Date(mine.start).getTime());
     expect(Number((moved[0] as unknown as { sequence: string }).sequence)).toBeGreaterThan(seqBefore);
     // Only this engineer's visits are in the feed.
     const others = await db()('visits').whereNot({ engineer_id: priya.id }).pluck('id');
