@@ -86,7 +86,9 @@ export function benchPrecache(input: { distDir: string }): void {
   const missing: string[] = [];
   const sizes: Array<[string, number]> = [];
   for (const url of urls) {
-    const local = url.startsWith('/_next/') ? path.join(input.distDir, url.slice('/_next/'.length)) : path.join('public', url);
+    // Route segments arrive URL-encoded ('%5Bid%5D' for '[id]'); the files are named plainly.
+    const plain = decodeURIComponent(url.split('?')[0]!);
+    const local = plain.startsWith('/_next/') ? path.join(input.distDir, plain.slice('/_next/'.length)) : path.join('public', plain);
     if (!fs.existsSync(local) || fs.statSync(local).isDirectory()) {
       missing.push(url);
       continue;
