@@ -32,4 +32,6 @@ step "production build"
 npx next build --webpack
 step "end-to-end tests"
 npx playwright test -c tests/e2e/playwright.config.ts
+step "benchmark smoke"
+NEXT_DIST_DIR=.next npx tsx tests/bench/run.ts --smoke --no-build
 step "done"
