@@ -11,7 +11,7 @@ import { fetchJson } from '@/lib/fetch-json';
 import { Field, Input } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { Alert } from '@/components/ui/alert';
-import { Select, applyServerErrors, errorProps } from '../../_components/form-bits';
+import { applyServerErrors, errorProps } from '../../_components/form-bits';
 
 const FIELDS = ['name', 'presetId', 'effectiveFrom', 'summary'] as const;
 
