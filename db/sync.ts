@@ -12,7 +12,7 @@ import { loadLimitContextForSite } from './code-profiles';
 import { AppError, fieldsFromIssues } from '@/lib/errors';
 import { newId } from '@/lib/ids';
 import { heatInputKw, CombustionInputError } from '@/lib/combustion';
-import { analyseReading, canonicalReading, currentReadings, localDate, submitBlockers, visitVerdicts, type LimitContext } from '@/lib/field';
+import { analyseReading, calibrationOverdue, canonicalReading, currentReadings, localDate, submitBlockers, visitVerdicts, type LimitContext } from '@/lib/field';
 import { mutationSchema, type Mutation, type MutationOf, type MutationResult } from '@/lib/validations/sync';
 import type { ApplianceDetails } from '@/lib/validations/inspection';
 import { cleanImage, type CleanImage } from '@/lib/storage/images';
@@ -87,6 +87,28 @@ async function checkAnalyser(ctx: Base, analyserId: string | null, field: string
   return row;
 }
 
+/**
+ * An analyser used past its calibration date, with the engineer's reason, goes into the office's
+ * register of overrides (migration 030), once per visit, analyser and reason, so review sees it.
+ */
+async function recordOverride(ctx: Base, analyser: Row | null, reason: string | null): Promise<void> {
+  if (!analyser || !reason) return;
+  const due = toDateOnly(analyser.calibration_due) ?? '';
+  if (!calibrationOverdue(due, ctx.now.slice(0, 10))) return;
+  const seen = await ctx.trx('analyser_overrides').where({ visit_id: ctx.visit.id, analyser_id: analyser.id, reason }).first('id');
+  if (seen) return;
+  await ctx.trx('analyser_overrides').insert({
+    id: newId(),
+    organisation_id: ctx.user.organisationId,
+    analyser_id: analyser.id,
+    visit_id: ctx.visit.id,
+    engineer_id: ctx.user.id,
+    reason,
+    calibration_due: due,
+    at: ctx.now,
+  });
+}
+
 function sameDetails(row: Row, details: ApplianceDetails): boolean {
   const stored = applianceColumns(applianceDetailsFromRow(row));
   const given = applianceColumns(details);
@@ -119,7 +141,8 @@ async function applyInspectionSave(ctx: Ctx<'inspection.save'>): Promise<Outcome
   const p = ctx.mutation.payload;
   const appliance = await applianceAtSite(ctx.trx, ctx.visit, p.applianceId);
   const inspection = await ensureInspection(ctx, p.applianceId);
-  await checkAnalyser(ctx, p.analyserId, 'analyserId');
+  const analyser = await checkAnalyser(ctx, p.analyserId, 'analyserId');
+  await recordOverride(ctx, analyser, p.analyserOverrideReason);
   let heat: { grossKw: number; netKw: number } | null = null;
   if (p.meterTest) {
     try {

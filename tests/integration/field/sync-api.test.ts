@@ -225,6 +225,34 @@ describe('readings are never overwritten', () => {
     expect((await readingsOf(BOILER)).map((x) => x.id)).toContain(r.payload.readingId);
   });
 
+  it('an analyser past its calibration date is recorded with the reason, once, for the office', async () => {
+    const furnace = await db()('appliances').where({ id: FURNACE }).first();
+    const reason = 'Calibrated unit is away for repair; bump-tested this one against test gas this morning';
+    const save = () =>
+      mutation('inspection.save', VISIT, {
+        applianceId: FURNACE,
+        details: { category: 'furnace', fuel: 'natural-gas', flueType: 'fan_assisted', location: furnace.location, make: furnace.make, model: furnace.model, serial: furnace.serial, ratedInputKw: 17, mfrRatioMax: null, mfrCoAirFreeMaxPpm: null, mfrCoMaxPpm: null },
+        detailsConfirmed: true,
+        baseUpdatedAt: null,
+        checklist: { visualCondition: null, flueTermination: null, ventilation: null, operatingPressure: null, safetyDevices: null, coAlarm: null },
+        spillage: null,
+        operatingPressureMbar: null,
+        meterTest: null,
+        // Analyser 2 of the demo register was due 35 days ago (seeds/01-demo-core.ts).
+        analyserId: demoIds.analyser(2),
+        analyserOverrideReason: reason,
+        notes: null,
+        notTestedReason: null,
+      });
+    expect((await sync([save(), save()])).body.results.map((r) => r.status)).toEqual(['applied', 'applied']);
+    const overrides = await db()('analyser_overrides').where({ visit_id: VISIT, analyser_id: demoIds.analyser(2) });
+    expect(overrides).toHaveLength(1);
+    expect(overrides[0]).toMatchObject({ reason, engineer_id: priya.id });
+    expect((await db()('inspections').where({ visit_id: VISIT, appliance_id: FURNACE }).first()).analyser_override_reason).toBe(reason);
+    // Back to the calibrated analyser for the rest of the visit.
+    await sync([{ ...save(), payload: { ...save().payload, analyserId: demoIds.analyser(0), analyserOverrideReason: null } }]);
+  });
+
   it('with no office change, the engineer’s edit updates the record, and a second edit is not a conflict', async () => {
     const appliance = await db()('appliances').where({ id: HEATER }).first();
     const base = toIso(appliance.updated_at)!;
