@@ -5,6 +5,8 @@ import { fetchJson } from '@/lib/fetch-json';
 import type { PortalSite } from '@/db/certificates';
 import { Alert } from '@/components/ui/alert';
 import { CertificateStatusBadge } from '@/components/certificates/certificate-status-badge';
+import { VerdictBadge } from '@/components/ui/verdict-badge';
+import { SafetyCaution } from '@/components/safety/caution';
 
 function formatDate(iso: string): string {
   return new Date(`${iso}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
@@ -16,6 +18,7 @@ export function PortalSites() {
   if (isLoading || !data) return <p className="text-ink-soft">Loading…</p>;
   if (data.items.length === 0) return <p className="text-ink-soft">No properties are registered to your account yet.</p>;
   return (
+    <>
     <ul className="flex flex-col gap-2" aria-label="Properties">
       {data.items.map((s) => (
         <li key={s.id} data-testid="portal-site">
@@ -31,8 +34,13 @@ export function PortalSites() {
               {s.current ? `${s.current.status === 'expired' ? 'Expired' : 'Valid until'} ${formatDate(s.current.expiresOn)} · ${s.current.numberText}` : 'No certificate on record yet.'}
             </span>
             {s.openFindings.length > 0 ? (
-              <span className="mt-1 block text-sm font-semibold text-service">
-                {s.openFindings.length} remedial item{s.openFindings.length === 1 ? '' : 's'} outstanding{s.openFindings.some((f) => f.severity === 'danger') ? ', including a danger' : ''}
+              <span className="mt-2 flex flex-wrap items-center gap-2 text-sm font-semibold">
+                {/* Shape and word as well as colour: a danger must read as one without colour vision. */}
+                <VerdictBadge level={s.openFindings.some((f) => f.severity === 'danger') ? 'danger' : 'service'} size="sm" />
+                <span>
+                  {s.openFindings.length} remedial item{s.openFindings.length === 1 ? '' : 's'} outstanding
+                  {s.openFindings.some((f) => f.severity === 'danger') ? ': an appliance must not be used until it is repaired' : ''}
+                </span>
               </span>
             ) : null}
             {s.renewalRequested ? <span className="mt-1 block text-sm text-ink-soft">Renewal requested</span> : null}
@@ -40,5 +48,7 @@ export function PortalSites() {
         </li>
       ))}
     </ul>
+    <SafetyCaution compact />
+    </>
   );
 }
