@@ -75,7 +75,7 @@ function TightnessForm({ ctx }: { ctx: VisitContext }) {
           {drop >= 0 ? `Drop ${drop.toFixed(1)} mbar` : `Pressure rose ${(-drop).toFixed(1)} mbar: check for a temperature change or a letting-by valve, and test again`}
         </p>
       ) : null}
-      {!ctx.closed ? <Button type="submit">{saved ? 'Save new tightness test' : 'Record tightness test'}</Button> : null}
+      {!ctx.closed ? <Button type="submit">{saved ? 'Update tightness test' : 'Record tightness test'}</Button> : null}
     </form>
   );
 }

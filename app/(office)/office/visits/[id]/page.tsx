@@ -80,7 +80,9 @@ function InspectionSection({ report, inspection, index }: { report: VisitReport;
         </div>
       </dl>
       {inspection.analyserOverrideReason ? <p className="text-sm">Reason for using an analyser past its calibration date: {inspection.analyserOverrideReason}</p> : null}
-      <div className="overflow-x-auto">
+      {inspection.readings.length === 0 ? <p className="text-sm text-ink-soft">No analyser readings.</p> : null}
+      {/* Focusable so the wide table can be scrolled from the keyboard too. */}
+      <div className={`overflow-x-auto ${inspection.readings.length === 0 ? 'hidden' : ''}`} tabIndex={0} role="region" aria-label={`Readings, ${d.location}`}>
         <table className="w-full text-left text-sm tabular">
           <caption className="sr-only">Analyser readings</caption>
           <thead>
