@@ -65,9 +65,15 @@ function VerdictBar({ ctx }: { ctx: VisitContext }) {
   const danger = v.overall === 'danger';
   const anythingRecorded = Object.keys(v.appliances).length > 0 || v.installation !== null || ctx.record.findings.length > 0;
   const worst = Object.values(v.appliances).find((a) => a.verdict.overall === v.overall)?.verdict.decidedBy ?? v.installation?.verdict.decidedBy;
+  const awaiting = ctx.appliances.filter((a) => {
+    const i = ctx.record.inspections[a.id];
+    return i !== undefined && !i.notTestedReason && i.readings.length === 0;
+  });
   const line = !anythingRecorded
     ? 'Nothing recorded yet.'
-    : v.overall === 'clear'
+    : v.overall === 'unknown' && awaiting.length > 0
+      ? `Readings still to record: ${awaiting.map((a) => (ctx.record.inspections[a.id]?.details ?? a.details).location).join(', ')}.`
+      : v.overall === 'clear'
       ? 'Every recorded figure is within its limit.'
       : (worst?.explanation ?? ctx.record.findings.find((f) => f.severity === v.overall)?.description ?? 'Some figures could not be judged.');
   return (
