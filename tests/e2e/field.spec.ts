@@ -2,6 +2,8 @@
 // (two appliances with readings, one at danger so the make-safe steps are forced, a photo and the
 // signature), survives a reload while offline, syncs when the network returns, and the office sees
 // the submitted visit with the same verdicts. Screenshots of each step go to test-results/screens/.
+import fs from 'node:fs';
+import path from 'node:path';
 import sharp from 'sharp';
 import { test, expect, ACCOUNTS } from './fixtures';
 import { SignInPage } from './pages';
@@ -237,4 +239,31 @@ test('a visit recorded offline survives a reload, syncs when back online, and re
   await expect(page.getByTestId('office-signature')).toBeVisible();
   await expect.poll(async () => page.getByTestId('office-signature').evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
   await page.screenshot({ path: 'test-results/screens/field-10-office-view.png', fullPage: true });
+});
+
+test('a new version of the field app is offered, and taken only when the engineer says so', async ({ page }) => {
+  const signIn = new SignInPage(page);
+  await signIn.open();
+  await signIn.withPassword(ACCOUNTS.engineer.email, ACCOUNTS.engineer.password);
+  await expect(page).toHaveURL(/\/field$/);
+  await page.waitForFunction(() => Boolean(navigator.serviceWorker?.controller), undefined, { timeout: 60_000 });
+  const scriptUrl = await page.evaluate(() => navigator.serviceWorker.controller!.scriptURL);
+  // A deployment changes the worker file; this build's own file (named after its build directory) stands in for it.
+  const file = path.join(process.cwd(), 'public', new URL(scriptUrl).pathname);
+  const original = fs.readFileSync(file);
+  try {
+    fs.appendFileSync(file, `\n// next version ${Date.now()}\n`);
+    await page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.update());
+    const prompt = page.getByTestId('update-prompt');
+    await expect(prompt).toContainText('A new version of the field app is ready');
+    await shot(page, '11-update-prompt');
+    const before = await page.evaluate(() => navigator.serviceWorker.controller?.scriptURL);
+    await prompt.getByRole('button', { name: 'Reload' }).click();
+    await expect(page.getByRole('heading', { name: 'My visits' })).toBeVisible();
+    await expect(prompt).toHaveCount(0);
+    expect(await page.evaluate(() => navigator.serviceWorker.controller?.scriptURL)).toBe(before);
+    await expect.poll(() => page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.waiting ?? null)).toBeNull();
+  } finally {
+    fs.writeFileSync(file, original);
+  }
 });
