@@ -20,7 +20,7 @@ const options: StackOptions = {
 async function main() {
   const skipBuild = process.argv.includes('--no-build') && fs.existsSync(path.join('.next', 'BUILD_ID'));
   if (!skipBuild) {
-    console.log('Building the app (about two minutes on a 2-core machine)…');
+    console.log('Building the app (a few minutes on a 2-core machine)…');
     // --webpack: the field app's service worker is built by @serwist/next's webpack plugin.
     await runToEnd(path.join('node_modules', '.bin', 'next'), ['build', '--webpack'], {});
   }

@@ -1,6 +1,7 @@
 'use client';
 // The visit at a glance: the site, how to get in, the appliances on record with their previous
 // results, and where each part of the recording stands.
+import { SafetyCaution } from '@/components/safety/caution';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { Button } from '@/components/ui/button';
 import { FLUE_TYPE_LABELS } from '@/lib/validations/inspection';
@@ -12,6 +13,7 @@ export function VisitOverview({ ctx }: { ctx: VisitContext }) {
   const visit = ctx.visit!;
   const tz = ctx.field.bundle?.timeZone ?? 'UTC';
   const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', timeZone: tz });
+  const roomCoHigh = ctx.verdicts.installation?.verdict.items.some((i) => i.metric === 'room_co_ppm' && (i.level === 'service' || i.level === 'danger')) ?? false;
   const arrive = () => ctx.field.commit(makeMutation('visit.arrive', visit.id, { arrivedAt: new Date().toISOString() }), 'Arrived on site');
 
   return (
@@ -145,6 +147,7 @@ export function VisitOverview({ ctx }: { ctx: VisitContext }) {
           </a>
         ) : null}
       </section>
+      <SafetyCaution compact showRoomCoAdvice={roomCoHigh} />
     </div>
   );
 }
