@@ -11,7 +11,15 @@ async function axeCheck(page: Page, seen: Set<string>, findings: AxeFinding[]) {
   if (seen.has(key) || !/^https?:/.test(url)) return;
   try {
     await page.waitForLoadState('load');
-    const result = await new AxeBuilder({ page }).analyze();
+    const first = await new AxeBuilder({ page }).analyze();
+    const serious = (r: typeof first) => r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+    let result = first;
+    if (serious(first).length > 0) {
+      // A page caught mid-hydration or mid-navigation can show a passing state (e.g. an attribute
+      // on <html>); look again once it settles and report what is still there.
+      await page.waitForLoadState('networkidle').catch(() => undefined);
+      result = await new AxeBuilder({ page }).analyze();
+    }
     seen.add(key);
     for (const v of result.violations) {
       if (v.impact === 'serious' || v.impact === 'critical') {
