@@ -5,6 +5,7 @@ import crypto from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from './knex';
 import { toIso } from './rows';
+import { visitCoreFromRow } from './visits';
 import { recordAudit, type Actor } from './audit';
 import { newId } from '@/lib/ids';
 import { AppError } from '@/lib/errors';
@@ -37,19 +38,7 @@ export type ClashWarning = { kind: 'engineer_double_booked' | 'site_double_booke
 
 function toBoardVisit(r: Record<string, unknown>): BoardVisit {
   return {
-    id: String(r.id),
-    siteId: String(r.site_id),
-    siteReference: String(r.reference),
-    address: [r.address_line1, r.address_line2].filter(Boolean).join(', '),
-    town: String(r.town),
-    postcode: String(r.postcode),
-    engineerId: (r.engineer_id as string | null) ?? null,
-    engineerName: (r.engineer_name as string | null) ?? null,
-    kind: String(r.kind),
-    status: r.status as VisitStatus,
-    windowStart: toIso(r.window_start) ?? '',
-    windowEnd: toIso(r.window_end) ?? '',
-    notes: (r.notes as string | null) ?? null,
+    ...visitCoreFromRow(r),
     followUpOf: (r.follow_up_of as string | null) ?? null,
     noAccessAt: toIso(r.no_access_at),
     noAccessNote: (r.no_access_note as string | null) ?? null,

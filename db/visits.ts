@@ -23,7 +23,8 @@ export type VisitSummary = {
   accessNotes: string | null;
 };
 
-function toSummary(r: Record<string, unknown>): VisitSummary {
+/** The fields every visit listing shares (visit joined to its site and engineer); the board adds its own. */
+export function visitCoreFromRow(r: Record<string, unknown>): Omit<VisitSummary, 'accessNotes'> {
   return {
     id: String(r.id),
     siteId: String(r.site_id),
@@ -38,8 +39,11 @@ function toSummary(r: Record<string, unknown>): VisitSummary {
     windowStart: toIso(r.window_start) ?? '',
     windowEnd: toIso(r.window_end) ?? '',
     notes: (r.notes as string | null) ?? null,
-    accessNotes: (r.access_notes as string | null) ?? null,
   };
+}
+
+function toSummary(r: Record<string, unknown>): VisitSummary {
+  return { ...visitCoreFromRow(r), accessNotes: (r.access_notes as string | null) ?? null };
 }
 
 /** An engineer's visits in a time range, earliest first. */
