@@ -121,8 +121,10 @@ test("other organisations' and other customers' pages and API reads answer 404; 
   await check(request, { who: 'office', url: `/office/sites/${site}`, expect: 200 });
   await check(request, { who: 'otherOffice', url: `/office/sites/${site}`, expect: 404 });
   await check(request, { who: 'otherOffice', url: `/office/customers/${customer}`, expect: 404 });
-  // Under a loading.tsx the page streams, so notFound() arrives after a 200 status line: what must
-  // hold is that another organisation's invoice answers exactly like one that does not exist.
+  // The list pages' loading screens live in a (list) route group, so detail pages do not stream and
+  // notFound() still sets the status line; another organisation's invoice also reads exactly like a missing one.
+  await check(request, { who: 'office', url: `/office/invoices/${invoice}`, expect: 200 });
+  await check(request, { who: 'otherOffice', url: `/office/invoices/${invoice}`, expect: 404 });
   await sameAsMissing(request, { who: 'otherOffice', url: `/office/invoices/${invoice}`, missing: '/office/invoices/00000000-0000-4000-8000-000000000000' });
   await check(request, { who: 'landlord', url: `/portal/sites/${site}`, expect: 200 });
   await check(request, { who: 'homeowner', url: `/portal/sites/${site}`, expect: 404 });

@@ -5,7 +5,7 @@ import { DASHBOARD_PERIOD_MONTHS, getDashboard, type RateGroup } from '@/db/dash
 import { listHighRoomChecks } from '@/db/insight';
 import { formatMoney } from '@/lib/billing/money';
 import { APPLIANCE_CATEGORY_LABELS, type ApplianceCategory } from '@/lib/limits';
-import { organisationToday } from './_components/today';
+import { organisationToday } from '../_components/today';
 
 export const metadata: Metadata = { title: 'Dashboard' };
 

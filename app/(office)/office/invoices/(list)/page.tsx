@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { requirePageRole } from '@/lib/auth/session';
 import { ButtonLink } from '@/components/ui/button';
-import { InvoicesTable } from './_components/invoices-table';
+import { InvoicesTable } from '../_components/invoices-table';
 
 export const metadata: Metadata = { title: 'Invoices' };
 

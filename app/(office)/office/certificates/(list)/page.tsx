@@ -6,7 +6,7 @@ import { listRenewalRequests } from '@/db/renewal-requests';
 import { CertificateStatusBadge } from '@/components/certificates/certificate-status-badge';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { SafetyCaution } from '@/components/safety/caution';
-import { CloseRequestButton } from './_components/close-request-button';
+import { CloseRequestButton } from '../_components/close-request-button';
 
 export const metadata: Metadata = { title: 'Certificates' };
 

@@ -5,7 +5,7 @@ import { listJurisdictions, type Jurisdiction } from '@/db/jurisdictions';
 import { getOrgDefaultProfile } from '@/db/code-profiles';
 import { ButtonLink } from '@/components/ui/button';
 import { SafetyCaution } from '@/components/safety/caution';
-import { JurisdictionForm } from './_components/jurisdiction-form';
+import { JurisdictionForm } from '../_components/jurisdiction-form';
 
 export const metadata: Metadata = { title: 'Limits' };
 
