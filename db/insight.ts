@@ -20,23 +20,19 @@ export type ApplianceHistorySource = {
   limitContext: LimitContext;
 };
 
-/** Everything buildApplianceHistory needs; null when the appliance is not the organisation's. */
-export async function getApplianceHistorySource(input: { organisationId: string; applianceId: string; excludeVisitId?: string }): Promise<ApplianceHistorySource | null> {
-  const knex = db();
-  const a: Row | undefined = await knex('appliances as a')
-    .join('sites as s', 's.id', 'a.site_id')
-    .where({ 'a.id': input.applianceId, 'a.organisation_id': input.organisationId })
-    .first('a.id', 'a.site_id', 'a.category', 'a.fuel', 'a.location', 'a.make', 'a.model', 'a.mfr_ratio_max', 'a.mfr_co_air_free_max_ppm', 's.reference', 's.address_line1', 's.town');
-  if (!a) return null;
-
+/** Finished inspections of some of the organisation's appliances with their current readings, oldest first per appliance. */
+async function loadFinishedInspections(knex: ReturnType<typeof db>, input: { organisationId: string; applianceIds: string[]; excludeVisitId?: string }): Promise<Map<string, HistoryInspectionInput[]>> {
+  const byAppliance = new Map<string, HistoryInspectionInput[]>();
+  if (input.applianceIds.length === 0) return byAppliance;
   const inspectionRows: Row[] = await knex('inspections as i')
     .join('visits as v', 'v.id', 'i.visit_id')
-    .where({ 'i.appliance_id': input.applianceId, 'i.organisation_id': input.organisationId })
+    .whereIn('i.appliance_id', input.applianceIds)
+    .where({ 'i.organisation_id': input.organisationId, 'v.organisation_id': input.organisationId })
     .whereIn('v.status', [...HISTORY_VISIT_STATUSES])
     .modify((q) => {
       if (input.excludeVisitId) q.whereNot('v.id', input.excludeVisitId);
     })
-    .select('i.id', 'i.visit_id', 'i.verdict_of_record', 'v.window_start')
+    .select('i.id', 'i.appliance_id', 'i.visit_id', 'i.verdict_of_record', 'v.window_start')
     .orderBy('v.window_start', 'asc');
   const ids = inspectionRows.map((r) => String(r.id));
   const readingRows: Row[] = ids.length
@@ -46,15 +42,16 @@ export async function getApplianceHistorySource(input: { organisationId: string;
         .select('r.inspection_id', 'r.test_point', 'r.co_ppm', 'r.co2_pct', 'r.o2_pct', 'r.flue_temp_c', 'r.air_temp_c', 'r.taken_at')
         .orderBy('r.taken_at', 'asc')
     : [];
-
-  const inspections: HistoryInspectionInput[] = inspectionRows.map((r) => ({
-    inspectionId: String(r.id),
-    visitId: String(r.visit_id),
-    date: toDateOnly(toIso(r.window_start)) ?? '',
-    verdict: (r.verdict_of_record as VerdictLevel | null) ?? null,
-    readings: readingRows
-      .filter((x) => String(x.inspection_id) === String(r.id))
-      .map((x) => ({
+  const readingsOf = new Map<string, Row[]>();
+  for (const x of readingRows) readingsOf.set(String(x.inspection_id), [...(readingsOf.get(String(x.inspection_id)) ?? []), x]);
+  for (const r of inspectionRows) {
+    const list = byAppliance.get(String(r.appliance_id)) ?? [];
+    list.push({
+      inspectionId: String(r.id),
+      visitId: String(r.visit_id),
+      date: toDateOnly(toIso(r.window_start)) ?? '',
+      verdict: (r.verdict_of_record as VerdictLevel | null) ?? null,
+      readings: (readingsOf.get(String(r.id)) ?? []).map((x) => ({
         testPoint: x.test_point as TestPoint,
         coPpm: Number(x.co_ppm),
         co2Pct: toNum(x.co2_pct),
@@ -62,7 +59,30 @@ export async function getApplianceHistorySource(input: { organisationId: string;
         flueTempC: toNum(x.flue_temp_c),
         airTempC: toNum(x.air_temp_c),
       })),
-  }));
+    });
+    byAppliance.set(String(r.appliance_id), list);
+  }
+  return byAppliance;
+}
+
+/**
+ * Every finished inspection of the given appliances, oldest first per appliance, for the field
+ * bundle's trend flags. Appliances of another organisation simply get nothing.
+ */
+export async function listFinishedInspections(input: { organisationId: string; applianceIds: string[] }): Promise<Map<string, HistoryInspectionInput[]>> {
+  return loadFinishedInspections(db(), input);
+}
+
+/** Everything buildApplianceHistory needs; null when the appliance is not the organisation's. */
+export async function getApplianceHistorySource(input: { organisationId: string; applianceId: string; excludeVisitId?: string }): Promise<ApplianceHistorySource | null> {
+  const knex = db();
+  const a: Row | undefined = await knex('appliances as a')
+    .join('sites as s', 's.id', 'a.site_id')
+    .where({ 'a.id': input.applianceId, 'a.organisation_id': input.organisationId })
+    .first('a.id', 'a.site_id', 'a.category', 'a.fuel', 'a.location', 'a.make', 'a.model', 'a.mfr_ratio_max', 'a.mfr_co_air_free_max_ppm', 's.reference', 's.address_line1', 's.town');
+  if (!a) return null;
+
+  const inspections = (await loadFinishedInspections(knex, { organisationId: input.organisationId, applianceIds: [input.applianceId], excludeVisitId: input.excludeVisitId })).get(input.applianceId) ?? [];
 
   const category = a.category as ApplianceCategory;
   const limitContext = await loadLimitContextForSite({ organisationId: input.organisationId, siteId: String(a.site_id) });

@@ -1,6 +1,7 @@
 // Shapes shared by the field app, its offline cache and the server: the visit bundle an engineer
 // downloads, and the visit record the device builds up while recording. Plain JSON throughout.
 import type { JurisdictionLevel, TestPoint, VerdictLevel } from '../limits/types';
+import type { Hint, TrendReason } from '../insight';
 import type {
   ApplianceDetails,
   FindingPayload,
@@ -28,12 +29,33 @@ export type PastResult = {
   findings: Array<{ severity: string; description: string }>;
 };
 
+/** One finished inspection on the ratio trend: its worst CO/CO2 ratio and the ratio limits in force on its date. */
+export type TrendPoint = { date: string; verdict: VerdictLevel | null; ratio: number | null; serviceLimit: number | null; dangerLimit: number | null };
+
+/**
+ * The "getting worse" flag for an appliance, worked out by the server with lib/insight from every
+ * finished inspection before this visit, so the phone shows it offline without the maths.
+ */
+export type FieldTrend = {
+  worsening: boolean;
+  reasons: TrendReason[];
+  message: string;
+  /** Oldest first; the latest few inspections only. */
+  points: TrendPoint[];
+  /** How many finished inspections the flag was worked out from (points may show fewer). */
+  inspections: number;
+  /** What to check, from common practice; never a verdict. */
+  hints: Array<Pick<Hint, 'code' | 'title' | 'because' | 'checks'>>;
+};
+
 export type FieldAppliance = {
   id: string;
   details: ApplianceDetails;
   /** The office record's updatedAt, sent back with edits so an office change meanwhile is noticed. */
   updatedAt: string;
   history: PastResult[];
+  /** Missing for appliances added on site and in bundles saved by an older version of the app. */
+  trend?: FieldTrend;
 };
 
 export type FieldAnalyser = {
