@@ -76,7 +76,7 @@ export function ExposurePanel({ room, coPpm, minutes, jurisdiction }: { room: st
           {rows.map((r) => (
             <tr key={r.label} className="border-t border-line">
               <td className="py-1.5 pr-2">{r.label}</td>
-              <td className="py-1.5 pr-2 font-bold tabular-nums" data-testid="cohb-estimate">{pct(r.point.cohbPct)}</td>
+              <td className="whitespace-nowrap py-1.5 pr-2 font-bold tabular-nums" data-testid="cohb-estimate">{pct(r.point.cohbPct)}</td>
               <td className="py-1.5">{r.point.band.label}</td>
             </tr>
           ))}

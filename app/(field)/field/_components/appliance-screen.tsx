@@ -1,6 +1,7 @@
 'use client';
-// Everything recorded for one appliance: details, checks, analyser, readings at high fire, low
-// fire and as left, findings and photos, with the appliance's verdict as it stands.
+// Everything recorded for one appliance: its earlier inspections and "getting worse" flag, details,
+// checks, analyser, readings at high fire, low fire and as left, findings and photos, with the
+// appliance's verdict as it stands.
 import { SafetyCaution } from '@/components/safety/caution';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { TEST_POINTS } from '@/lib/limits';
@@ -11,6 +12,7 @@ import { ReadingCard } from './reading-card';
 import { UnitsToggle } from './units-toggle';
 import { VerdictBlock } from './verdict-list';
 import { applianceLabel, type VisitAppliance, type VisitContext } from './use-field';
+import { TrendDetail } from './insight-trend';
 
 export function ApplianceScreen({ ctx, appliance }: { ctx: VisitContext; appliance: VisitAppliance }) {
   const inspection = ctx.inspectionOf(appliance.id);
@@ -25,6 +27,7 @@ export function ApplianceScreen({ ctx, appliance }: { ctx: VisitContext; applian
         <h2 className="text-lg font-bold">{label}</h2>
         {result ? <VerdictBadge level={result.verdict.overall} /> : null}
       </div>
+      <TrendDetail trend={appliance.trend} headingId={`${appliance.id}-history`} />
       <UnitsToggle />
       <DetailsCard key={`${appliance.id}-${inspection.detailsConfirmed}`} ctx={ctx} appliance={appliance} />
       <Checklist ctx={ctx} appliance={appliance} />

@@ -10,6 +10,7 @@ import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { Button } from '@/components/ui/button';
 import { Field, inputClass } from '@/components/ui/field';
 import { Findings } from './findings';
+import { RoomExposure } from './insight-exposure';
 import { VerdictBlock } from './verdict-list';
 import { makeMutation, type VisitContext } from './use-field';
 
@@ -115,6 +116,7 @@ export function InstallationScreen({ ctx }: { ctx: VisitContext }) {
                   {item ? <VerdictBadge level={item.level} size="sm" /> : null}
                 </div>
                 {item ? <p>{item.explanation}</p> : null}
+                <RoomExposure room={c.room} coPpm={c.coPpm} minutes={c.minutes} limits={ctx.limits} date={ctx.date} high={item?.level === 'service' || item?.level === 'danger'} />
                 {!ctx.closed ? (
                   <button type="button" className="min-h-11 self-start text-sm font-semibold text-ink-soft underline" onClick={() => void ctx.field.commit(makeMutation('roomCheck.remove', ctx.record.visitId, { roomCheckId: c.roomCheckId }), `Room check removed — ${c.room}`)}>
                     Remove

@@ -1,6 +1,6 @@
 'use client';
 // The visit at a glance: the site, how to get in, the appliances on record with their previous
-// results, and where each part of the recording stands.
+// results and "getting worse" flags, and where each part of the recording stands.
 import { SafetyCaution } from '@/components/safety/caution';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { Button } from '@/components/ui/button';
@@ -8,6 +8,7 @@ import { FLUE_TYPE_LABELS } from '@/lib/validations/inspection';
 import { FUEL_LABELS, TEST_POINT_LABELS } from '@/lib/limits';
 import { currentReadings, formatRatio } from '@/lib/field';
 import { applianceLabel, makeMutation, type VisitContext } from './use-field';
+import { TrendSummary } from './insight-trend';
 
 export function VisitOverview({ ctx }: { ctx: VisitContext }) {
   const visit = ctx.visit!;
@@ -92,6 +93,7 @@ export function VisitOverview({ ctx }: { ctx: VisitContext }) {
                   </span>
                   <span className="text-sm">{readings.length > 0 ? `${readings.length} ${readings.length === 1 ? 'reading' : 'readings'} recorded` : 'No readings yet'}{a.added ? ' · added on site' : ''}</span>
                 </a>
+                <TrendSummary trend={a.trend} />
                 {a.history.length > 0 ? (
                   <details className="mt-2 text-sm">
                     <summary className="min-h-11 cursor-pointer py-2 font-semibold text-copper-dark">Previous results ({a.history.length})</summary>
