@@ -9,6 +9,7 @@ import * as m030 from '../migrations/20261202_030_office';
 import * as m040 from '../migrations/20261202_040_certificates';
 import * as m070 from '../migrations/20261202_070_scale_indexes';
 import * as m090 from '../migrations/20261202_090_double_precision';
+import * as m100 from '../migrations/20261202_100_renewal_dates';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
@@ -23,6 +24,7 @@ export const MIGRATIONS: Array<[string, Migration]> = (
     ['20261202_030_office', m030],
     ['20261202_040_certificates', m040],
     ['20261202_070_scale_indexes', m070],
+    ['20261202_100_renewal_dates', m100],
   ] as Array<[string, Migration]>
 ).sort(([a], [b]) => a.localeCompare(b));
 

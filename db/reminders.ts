@@ -1,13 +1,14 @@
 import 'server-only';
-// Renewals and the reminder outbox. "Last certified" is read in one place (certifiedChecks) so it
-// can move from visits to the certificates table when that exists.
+// Renewals and the reminder outbox. Each site's expiry and last check are stored on the site and
+// kept current by lib/renewals/stored.ts (recomputed from the certified visits whenever they change).
+import type { Knex } from 'knex';
 import { db } from './knex';
 import { toDateOnly, toIso } from './rows';
 import { recordAudit, type Actor } from './audit';
 import { newId } from '@/lib/ids';
-import {
-  dateInZone, dueReminderOffset, expiryFromHistory, policySource, renewalState, type IsoDate, type RenewalPolicy, type RenewalState,
-} from '@/lib/renewals';
+import { addDays, dateInZone, dueReminderOffset, policySource, renewalState, type IsoDate, type RenewalPolicy, type RenewalState } from '@/lib/renewals';
+import { refreshRenewalDates } from '@/lib/renewals/stored';
+import { containsPattern } from './search';
 import type { RenewalListQuery } from '@/lib/validations/renewals';
 import type { Page } from './sites';
 
@@ -38,24 +39,6 @@ export async function updateReminderSettings(actor: Actor, offsetsDays: number[]
   return getReminderSettings(actor.organisationId);
 }
 
-/**
- * The dates of each site's certified checks, in the organisation's time zone. Until certificates
- * exist this reads certified visits (status 'certified', certified_at set); switch this one function later.
- */
-export async function certifiedChecks(organisationId: string, timeZone: string, siteId?: string): Promise<Map<string, IsoDate[]>> {
-  // The check date is when the engineer tested (arrival, else the booked start), not when the office
-  // later certified it: a certificate issued a week after the check still runs from the check.
-  const q = db()('visits').where({ organisation_id: organisationId, status: 'certified' }).whereNotNull('certified_at').select('site_id', 'certified_at', 'arrived_at', 'window_start');
-  if (siteId) q.andWhere({ site_id: siteId });
-  const out = new Map<string, IsoDate[]>();
-  for (const r of await q) {
-    const list = out.get(String(r.site_id)) ?? [];
-    list.push(dateInZone(new Date(toIso(r.arrived_at) ?? toIso(r.window_start)!), timeZone));
-    out.set(String(r.site_id), list);
-  }
-  return out;
-}
-
 export type SiteRenewal = {
   /** Same as siteId: list tables key rows by id. */
   id: string;
@@ -76,63 +59,110 @@ export type SiteRenewal = {
   policySource: string;
 };
 
-async function computeRenewals(organisationId: string, siteId?: string): Promise<{ settings: OrganisationReminderSettings; today: IsoDate; items: SiteRenewal[] }> {
-  const settings = await getReminderSettings(organisationId);
-  const today = dateInZone(new Date(), settings.timeZone);
+const isPg = () => String(db().client.config.client) === 'pg';
+
+/** Sites of the organisation with what a renewal row shows (the expiry and last check are stored on the site). */
+function renewalRows(organisationId: string) {
   const knex = db();
-  const q = knex('sites as s')
+  return knex('sites as s')
     .join('jurisdictions as j', 'j.id', 's.jurisdiction_id')
     .leftJoin('users as l', 'l.id', 's.landlord_id')
     .leftJoin('users as h', 'h.id', 's.homeowner_id')
     .where('s.organisation_id', organisationId)
     .select(
-      's.id', 's.reference', 's.address_line1', 's.town', 's.postcode', 'j.name as jurisdiction_name', 'j.certificate_period_months', 'j.early_renewal_days', 'j.renewal_rule_source',
-      'l.name as landlord_name', 'l.email as landlord_email', 'l.active as landlord_active', 'h.name as homeowner_name', 'h.email as homeowner_email',
+      's.id', 's.reference', 's.address_line1', 's.town', 's.postcode', 's.renewal_expires_on', 's.renewal_last_checked_on',
+      'j.name as jurisdiction_name', 'j.certificate_period_months', 'j.early_renewal_days', 'j.renewal_rule_source',
+      'l.name as landlord_name', 'l.email as landlord_email', 'h.name as homeowner_name', 'h.email as homeowner_email',
       knex('visits as v').min('v.window_start').whereRaw('v.site_id = s.id').whereIn('v.status', ['booked', 'on_site']).andWhere('v.window_start', '>=', new Date().toISOString()).as('next_visit_at'),
     );
-  if (siteId) q.andWhere('s.id', siteId);
-  const [rows, checks] = await Promise.all([q, certifiedChecks(organisationId, settings.timeZone, siteId)]);
-  const dueSoonDays = Math.max(...settings.offsetsDays);
-  const items = rows.map((r: Record<string, unknown>): SiteRenewal => {
-    const policy: RenewalPolicy = { periodMonths: Number(r.certificate_period_months), earlyRenewalDays: Number(r.early_renewal_days), source: (r.renewal_rule_source as string | null) ?? null };
-    const history = checks.get(String(r.id)) ?? [];
-    const expiresOn = expiryFromHistory(history, policy);
-    const { state, daysLeft } = renewalState({ expiresOn, today, dueSoonDays });
-    // The landlord is told where there is one; otherwise the homeowner (the bill payer).
-    const useLandlord = Boolean(r.landlord_email);
-    return {
-      id: String(r.id), siteId: String(r.id), reference: String(r.reference), address: String(r.address_line1), town: String(r.town), postcode: String(r.postcode), jurisdictionName: String(r.jurisdiction_name),
-      recipientName: ((useLandlord ? r.landlord_name : r.homeowner_name) as string | null) ?? null,
-      recipientEmail: ((useLandlord ? r.landlord_email : r.homeowner_email) as string | null) ?? null,
-      lastCheckedOn: history.length ? [...history].sort().at(-1)! : null,
-      expiresOn, state, daysLeft, nextVisitAt: toIso(r.next_visit_at), policy, policySource: policySource(policy),
-    };
-  });
-  return { settings, today, items };
+}
+
+function toSiteRenewal(r: Record<string, unknown>, today: IsoDate, dueSoonDays: number): SiteRenewal {
+  const policy: RenewalPolicy = { periodMonths: Number(r.certificate_period_months), earlyRenewalDays: Number(r.early_renewal_days), source: (r.renewal_rule_source as string | null) ?? null };
+  const expiresOn = (r.renewal_expires_on as string | null) ?? null;
+  const { state, daysLeft } = renewalState({ expiresOn, today, dueSoonDays });
+  // The landlord is told where there is one; otherwise the homeowner (the bill payer).
+  const useLandlord = Boolean(r.landlord_email);
+  return {
+    id: String(r.id), siteId: String(r.id), reference: String(r.reference), address: String(r.address_line1), town: String(r.town), postcode: String(r.postcode), jurisdictionName: String(r.jurisdiction_name),
+    recipientName: ((useLandlord ? r.landlord_name : r.homeowner_name) as string | null) ?? null,
+    recipientEmail: ((useLandlord ? r.landlord_email : r.homeowner_email) as string | null) ?? null,
+    lastCheckedOn: (r.renewal_last_checked_on as string | null) ?? null,
+    expiresOn, state, daysLeft, nextVisitAt: toIso(r.next_visit_at), policy, policySource: policySource(policy),
+  };
 }
 
 export async function getSiteRenewal(organisationId: string, siteId: string): Promise<SiteRenewal | null> {
-  return (await computeRenewals(organisationId, siteId)).items[0] ?? null;
+  const settings = await getReminderSettings(organisationId);
+  await refreshRenewalDates(db(), organisationId, [siteId]);
+  const row = await renewalRows(organisationId).andWhere('s.id', siteId).first();
+  return row ? toSiteRenewal(row, dateInZone(new Date(), settings.timeZone), Math.max(...settings.offsetsDays)) : null;
 }
 
-const STATE_ORDER: Record<RenewalState, number> = { overdue: 0, due_soon: 1, none: 2, ok: 3 };
+/** The expiry range of each state, given today and the due-soon horizon (dates compare as text). */
+function whereState(q: Knex.QueryBuilder, state: RenewalState | 'attention', today: IsoDate, dueSoonUntil: IsoDate, column = 's.renewal_expires_on'): Knex.QueryBuilder {
+  if (state === 'none') return q.whereNull(column);
+  if (state === 'overdue') return q.where(column, '<', today);
+  if (state === 'due_soon') return q.where(column, '>=', today).andWhere(column, '<=', dueSoonUntil);
+  if (state === 'ok') return q.where(column, '>', dueSoonUntil);
+  return q.where(column, '<=', dueSoonUntil); // attention: overdue or due soon (a null never compares)
+}
 
+/**
+ * The renewals list: each site's state from its stored expiry (overdue once past, due soon within
+ * the largest reminder offset), filtered, sorted and paged in SQL. Same rows and order as working
+ * it out per site in memory (tests/integration/office/renewals-stored.test.ts compares the two).
+ */
 export async function listRenewals(organisationId: string, query: RenewalListQuery): Promise<Page<SiteRenewal> & { today: IsoDate; offsetsDays: number[]; counts: Record<RenewalState, number> }> {
-  const { settings, today, items } = await computeRenewals(organisationId);
-  const counts: Record<RenewalState, number> = { overdue: 0, due_soon: 0, none: 0, ok: 0 };
-  for (const i of items) counts[i.state]++;
-  let list = items;
-  if (query.state === 'attention') list = list.filter((i) => i.state === 'overdue' || i.state === 'due_soon');
-  else if (query.state) list = list.filter((i) => i.state === query.state);
+  const settings = await getReminderSettings(organisationId);
+  const today = dateInZone(new Date(), settings.timeZone);
+  const dueSoonDays = Math.max(...settings.offsetsDays);
+  const dueSoonUntil = addDays(today, dueSoonDays);
+  const knex = db();
+  await refreshRenewalDates(knex, organisationId);
+
+  // Four index range counts (sites_org_renewal_expires_index) rather than a pass over every site.
+  const states: RenewalState[] = ['overdue', 'due_soon', 'none', 'ok'];
+  const counted = await Promise.all(
+    states.map((state) => whereState(knex('sites as s').where('s.organisation_id', organisationId), state, today, dueSoonUntil).count<Array<{ n: number | string }>>({ n: '*' })),
+  );
+  const counts = Object.fromEntries(states.map((state, i) => [state, Number(counted[i]![0]!.n)])) as Record<RenewalState, number>;
+
+  const filtered = (q: Knex.QueryBuilder) => {
+    if (query.state) whereState(q, query.state, today, dueSoonUntil);
+    if (query.q) {
+      // The same text the list shows: reference, address, town, postcode and the recipient's name.
+      q.andWhereRaw(
+        `lower(s.reference || ' ' || s.address_line1 || ' ' || s.town || ' ' || s.postcode || ' ' || coalesce(case when l.email is not null and l.email <> '' then l.name else h.name end, '')) like ? escape '\\'`,
+        [containsPattern(query.q)],
+      );
+    }
+    return q;
+  };
+  let total: number;
   if (query.q) {
-    const q = query.q.toLowerCase();
-    list = list.filter((i) => `${i.reference} ${i.address} ${i.town} ${i.postcode} ${i.recipientName ?? ''}`.toLowerCase().includes(q));
+    const base = knex('sites as s').leftJoin('users as l', 'l.id', 's.landlord_id').leftJoin('users as h', 'h.id', 's.homeowner_id').where('s.organisation_id', organisationId);
+    const [{ n }] = await filtered(base).count<Array<{ n: number | string }>>({ n: '*' });
+    total = Number(n);
+  } else if (!query.state) total = states.reduce((sum, s) => sum + counts[s], 0);
+  else if (query.state === 'attention') total = counts.overdue + counts.due_soon;
+  else total = counts[query.state];
+
+  // Order: the sort key, then the state (overdue, due soon, none, ok), then the site id, all in the
+  // chosen direction. With no undated sites in the filter, the expiry order comes straight off the index.
+  const dir = query.dir === 'desc' ? 'desc' : 'asc';
+  const text = isPg() ? ' collate "C"' : ''; // code-point order on both engines, as in JavaScript
+  const stateOrder = [`case when s.renewal_expires_on is null then 2 when s.renewal_expires_on < ? then 0 when s.renewal_expires_on <= ? then 1 else 3 end ${dir}`, [today, dueSoonUntil]] as const;
+  const page = filtered(renewalRows(organisationId));
+  if (query.sort === 'expires' && query.state && query.state !== 'none') {
+    page.orderBy('s.renewal_expires_on', dir).orderBy('s.id', dir);
+  } else {
+    if (query.sort === 'expires') page.orderByRaw(`coalesce(s.renewal_expires_on, '9999-12-31') ${dir}`);
+    else page.orderByRaw(`${query.sort === 'site' ? 's.reference' : 's.town'}${text} ${dir}`);
+    page.orderByRaw(stateOrder[0], [...stateOrder[1]]).orderByRaw(`s.id${text} ${dir}`);
   }
-  const sign = query.dir === 'desc' ? -1 : 1;
-  const key = (i: SiteRenewal) => (query.sort === 'site' ? i.reference : query.sort === 'town' ? i.town : i.expiresOn ?? '9999-12-31');
-  list = [...list].sort((a, b) => sign * (key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : STATE_ORDER[a.state] - STATE_ORDER[b.state] || a.siteId.localeCompare(b.siteId)));
-  const start = (query.page - 1) * query.pageSize;
-  return { items: list.slice(start, start + query.pageSize), total: list.length, page: query.page, pageSize: query.pageSize, today, offsetsDays: settings.offsetsDays, counts };
+  const rows: Array<Record<string, unknown>> = await page.limit(query.pageSize).offset((query.page - 1) * query.pageSize);
+  return { items: rows.map((r) => toSiteRenewal(r, today, dueSoonDays)), total, page: query.page, pageSize: query.pageSize, today, offsetsDays: settings.offsetsDays, counts };
 }
 
 // ---- Reminder outbox ----
@@ -172,8 +202,16 @@ export async function listOrganisationIds(): Promise<string[]> {
 
 /** Reminders due today for one organisation, as rows ready for the outbox (not yet written). */
 export async function dueReminders(organisationId: string, input: { appUrl: string; domain: string; now: Date }): Promise<Array<Omit<OutboxRow, 'status' | 'attempts' | 'claimToken' | 'claimedAt' | 'sentAt' | 'lastError'>>> {
-  const { settings, items } = await computeRenewals(organisationId);
+  const settings = await getReminderSettings(organisationId);
   const today = dateInZone(input.now, settings.timeZone);
+  await refreshRenewalDates(db(), organisationId);
+  // Only sites whose expiry is from today up to the largest offset ahead can have a reminder due.
+  const rows: Array<Record<string, unknown>> = await renewalRows(organisationId)
+    .andWhere('s.renewal_expires_on', '>=', today)
+    .andWhere('s.renewal_expires_on', '<=', addDays(today, Math.max(...settings.offsetsDays)))
+    .orderBy('s.renewal_expires_on')
+    .orderBy('s.id');
+  const items = rows.map((r) => toSiteRenewal(r, today, Math.max(...settings.offsetsDays)));
   const out = [];
   for (const s of items) {
     if (!s.expiresOn || !s.recipientEmail) continue;

@@ -5,6 +5,8 @@
 // statements in large transactions, since row-by-row Knex inserts would take many minutes.
 import { createHash } from 'node:crypto';
 import Database from 'better-sqlite3';
+import { dateInZone } from '../lib/renewals';
+import { renewalFromChecks } from '../lib/renewals/stored';
 import { demoIds, DEMO_ACCOUNTS } from './demo-support';
 
 export type ScaleSize = { sites: number; landlords: number; bigLandlordSites: number; engineers: number };
@@ -72,7 +74,7 @@ export function seedScale(databaseFile: string, size: ScaleSize = FULL_SCALE): {
 
   const insertUser = db.prepare('insert into users (id, organisation_id, email, name, role, active, created_at, updated_at) values (?, ?, ?, ?, ?, 1, ?, ?)');
   const insertSite = db.prepare(
-    'insert into sites (id, organisation_id, reference, address_line1, town, postcode, jurisdiction_id, landlord_id, search_text, created_at, updated_at) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)',
+    'insert into sites (id, organisation_id, reference, address_line1, town, postcode, jurisdiction_id, landlord_id, search_text, renewal_expires_on, renewal_last_checked_on, renewal_fresh, created_at, updated_at) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 1, ?, ?)',
   );
   const insertAppliance = db.prepare(
     'insert into appliances (id, organisation_id, site_id, category, fuel, flue_type, location, make, model, serial, active, created_at, updated_at) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 1, ?, ?)',
@@ -97,6 +99,19 @@ export function seedScale(databaseFile: string, size: ScaleSize = FULL_SCALE): {
     .prepare(`select name, sql from sqlite_master where type = 'index' and sql is not null and tbl_name in (${loaded.map(() => '?').join(', ')})`)
     .all(...loaded) as Array<{ name: string; sql: string }>;
   for (const index of indexes) db.exec(`drop index "${index.name}"`);
+  // The triggers that mark a site's stored renewal dates stale (migrations/…_100_renewal_dates.ts)
+  // are dropped too: each site's dates are written with it below, from its one certified check.
+  const triggers = db
+    .prepare(`select name, sql from sqlite_master where type = 'trigger' and tbl_name in (${loaded.map(() => '?').join(', ')})`)
+    .all(...loaded) as Array<{ name: string; sql: string }>;
+  for (const trigger of triggers) db.exec(`drop trigger "${trigger.name}"`);
+  const timeZone = String((db.prepare('select time_zone from organisations where id = ?').get(demoIds.org) as { time_zone: string }).time_zone);
+  const policies = new Map(
+    (db.prepare('select id, certificate_period_months, early_renewal_days from jurisdictions').all() as Array<{ id: string; certificate_period_months: number; early_renewal_days: number }>).map((j) => [
+      j.id,
+      { periodMonths: j.certificate_period_months, earlyRenewalDays: j.early_renewal_days, source: null },
+    ]),
+  );
 
   const org = demoIds.org;
   const stamp = iso(now);
@@ -119,12 +134,13 @@ export function seedScale(databaseFile: string, size: ScaleSize = FULL_SCALE): {
         const reference = `SC-${100000 + i}`;
         const line1 = `${1 + (i % 180)} ${['Mill', 'Quay', 'Orchard', 'Station', 'Chapel'][i % 5]} ${['Road', 'Lane', 'Street'][i % 3]}`;
         const postcode = `${town.slice(0, 2).toUpperCase()}${1 + (i % 9)} ${i % 10}XY`;
-        insertSite.run(siteId, org, reference, line1, town, postcode, JURISDICTIONS[i % 3], landlordOfSite(i, size), `${line1} ${town} ${postcode} ${reference}`.toLowerCase(), stamp, stamp);
+        // Last year's check: certified 1 to 365 days ago, so renewals fall due all through the year.
+        const checked = now - (1 + (i % 365)) * DAY;
+        const renewal = renewalFromChecks([dateInZone(new Date(checked), timeZone)], policies.get(JURISDICTIONS[i % 3]!)!);
+        insertSite.run(siteId, org, reference, line1, town, postcode, JURISDICTIONS[i % 3], landlordOfSite(i, size), `${line1} ${town} ${postcode} ${reference}`.toLowerCase(), renewal.expiresOn, renewal.lastCheckedOn, stamp, stamp);
         count('sites');
 
-        // Last year's check: certified 1 to 365 days ago, so renewals fall due all through the year.
         const engineer = scaleIds.engineer(i % size.engineers);
-        const checked = now - (1 + (i % 365)) * DAY;
         const visitId = scaleIds.visit(i);
         insertVisit.run(visitId, org, siteId, engineer, 'annual_check', 'certified', iso(checked), iso(checked + 2 * 3_600_000), iso(checked), iso(checked + 5_400_000), iso(checked + DAY / 2), iso(checked), iso(checked + DAY / 2));
         count('visits');
@@ -167,6 +183,7 @@ export function seedScale(databaseFile: string, size: ScaleSize = FULL_SCALE): {
   }
   count('visits', bookings);
   for (const index of indexes) db.exec(index.sql);
+  for (const trigger of triggers) db.exec(trigger.sql);
   db.pragma('locking_mode = NORMAL');
   db.pragma('journal_mode = WAL'); // back to the mode the app opens it in
   db.close();
