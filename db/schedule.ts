@@ -10,7 +10,8 @@ import { recordAudit, type Actor } from './audit';
 import { newId } from '@/lib/ids';
 import { AppError } from '@/lib/errors';
 import { zonedToUtc, utcToZoned, shiftDate } from '@/lib/schedule/zoned';
-import { OCCUPYING, canTransition, isReschedulable, type VisitStatus } from '@/lib/schedule/lifecycle';
+import { canTransition, isReschedulable, type VisitStatus } from '@/lib/schedule/lifecycle';
+import { findClashes, type ClashWarning } from '@/lib/schedule/clashes';
 import type { VisitData, VisitStatusInput } from '@/lib/validations/visits';
 
 export type BoardVisit = {
@@ -34,7 +35,8 @@ export type BoardVisit = {
   updatedAt: string;
 };
 
-export type ClashWarning = { kind: 'engineer_double_booked' | 'site_double_booked'; visitId: string; message: string };
+export type { ClashWarning };
+export { findClashes };
 
 function toBoardVisit(r: Record<string, unknown>): BoardVisit {
   return {
@@ -52,7 +54,10 @@ function visitQuery(knex: Knex, organisationId: string) {
     .join('sites as s', 's.id', 'v.site_id')
     .leftJoin('users as u', 'u.id', 'v.engineer_id')
     .where('v.organisation_id', organisationId)
-    .select('v.*', 's.reference', 's.address_line1', 's.address_line2', 's.town', 's.postcode', 'u.name as engineer_name');
+    .select(
+      'v.id', 'v.site_id', 'v.engineer_id', 'v.kind', 'v.status', 'v.window_start', 'v.window_end', 'v.notes', 'v.follow_up_of', 'v.no_access_at', 'v.no_access_note', 'v.cancel_reason', 'v.updated_at',
+      's.reference', 's.address_line1', 's.address_line2', 's.town', 's.postcode', 'u.name as engineer_name',
+    );
 }
 
 export async function getOrganisationTimeZone(organisationId: string): Promise<string> {
@@ -70,28 +75,6 @@ export type Engineer = { id: string; name: string };
 export async function listEngineers(organisationId: string): Promise<Engineer[]> {
   const rows = await db()('users').where({ organisation_id: organisationId, role: 'engineer', active: true }).select('id', 'name').orderBy('name');
   return rows.map((r: Record<string, unknown>) => ({ id: String(r.id), name: String(r.name) }));
-}
-
-/** Clashes among a set of visits: same engineer at overlapping times; same site twice on one day. */
-export function findClashes(visits: BoardVisit[], timeZone: string): Map<string, ClashWarning[]> {
-  const out = new Map<string, ClashWarning[]>();
-  const add = (id: string, w: ClashWarning) => out.set(id, [...(out.get(id) ?? []), w]);
-  const open = visits.filter((v) => OCCUPYING.includes(v.status));
-  for (let i = 0; i < open.length; i++) {
-    for (let j = i + 1; j < open.length; j++) {
-      const a = open[i];
-      const b = open[j];
-      if (a.engineerId && a.engineerId === b.engineerId && a.windowStart < b.windowEnd && b.windowStart < a.windowEnd) {
-        add(a.id, { kind: 'engineer_double_booked', visitId: b.id, message: `${a.engineerName ?? 'Engineer'} is also booked at ${b.siteReference} then` });
-        add(b.id, { kind: 'engineer_double_booked', visitId: a.id, message: `${b.engineerName ?? 'Engineer'} is also booked at ${a.siteReference} then` });
-      }
-      if (a.siteId === b.siteId && utcToZoned(a.windowStart, timeZone).date === utcToZoned(b.windowStart, timeZone).date) {
-        add(a.id, { kind: 'site_double_booked', visitId: b.id, message: `${a.siteReference} has another visit that day` });
-        add(b.id, { kind: 'site_double_booked', visitId: a.id, message: `${b.siteReference} has another visit that day` });
-      }
-    }
-  }
-  return out;
 }
 
 /** The board: visits from `from` for `days` days (organisation time zone), with their clashes. */
