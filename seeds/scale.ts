@@ -1,7 +1,7 @@
 // Scale seed for the benchmark (not part of the demo seed list): on top of the demo scenario,
 // 100 000 sites, 250 000 appliances, a certified visit per site with an inspection per appliance
 // and 1 000 000 readings, the next eight weeks of bookings, 500 landlords (one holding 2 000
-// sites, with their certificates) and 20 more engineers. Written through better-sqlite3 prepared
+// sites, with their certificates) and 70 more engineers. Written through better-sqlite3 prepared
 // statements in large transactions, since row-by-row Knex inserts would take many minutes.
 import { createHash } from 'node:crypto';
 import Database from 'better-sqlite3';
@@ -11,7 +11,8 @@ import { demoIds, DEMO_ACCOUNTS } from './demo-support';
 
 export type ScaleSize = { sites: number; landlords: number; bigLandlordSites: number; engineers: number };
 
-export const FULL_SCALE: ScaleSize = { sites: 100_000, landlords: 500, bigLandlordSites: 2_000, engineers: 20 };
+// 70 engineers: the roughly 275 renewals a day falling due at this size are four two-hour visits each.
+export const FULL_SCALE: ScaleSize = { sites: 100_000, landlords: 500, bigLandlordSites: 2_000, engineers: 70 };
 
 /** Deterministic ids in their own range, so they never meet the demo scenario's. */
 function sid(kind: number, n: number): string {
@@ -161,14 +162,6 @@ export function seedScale(databaseFile: string, size: ScaleSize = FULL_SCALE): {
         count('inspections', appliances);
         count('readings', appliances * testPoints.length);
 
-        // Renewal booked for sites whose year runs out in the next eight weeks.
-        const dueIn = 365 - (1 + (i % 365));
-        if (dueIn < 56) {
-          const start = now + dueIn * DAY + (9 + (i % 8)) * 3_600_000;
-          insertVisit.run(scaleIds.booking(i), org, siteId, engineer, 'annual_check', 'booked', iso(start), iso(start + 2 * 3_600_000), null, null, null, stamp, stamp);
-          bookings++;
-        }
-
         if (i < size.bigLandlordSites) {
           const issued = new Date(checked + DAY / 2);
           const expires = new Date(issued.getTime() + 365 * DAY);
@@ -181,6 +174,24 @@ export function seedScale(databaseFile: string, size: ScaleSize = FULL_SCALE): {
       }
     })();
   }
+  // Renewals booked for the sites whose year runs out in the next eight weeks, written day by day
+  // as an office books them over time. A working day per engineer: two-hour slots from 08:00 UTC,
+  // back to back, the day's sites shared round the engineers; one booking in forty starts an hour
+  // late and so overlaps that engineer's next slot, giving the board's clash check some real clashes.
+  const perYear = Math.ceil(size.sites / 365);
+  db.transaction(() => {
+    for (let dueIn = 0; dueIn < 56; dueIn++) {
+      const day = Date.UTC(new Date(now).getUTCFullYear(), new Date(now).getUTCMonth(), new Date(now).getUTCDate() + dueIn);
+      for (let k = 0; k < perYear; k++) {
+        const i = k * 365 + (364 - dueIn); // the sites checked 365 - dueIn days ago
+        if (i >= size.sites) continue;
+        const slot = Math.floor(k / size.engineers);
+        const start = day + (8 + 2 * slot + (k % 40 === 7 ? 1 : 0)) * 3_600_000;
+        insertVisit.run(scaleIds.booking(i), org, scaleIds.site(i), scaleIds.engineer(k % size.engineers), 'annual_check', 'booked', iso(start), iso(start + 2 * 3_600_000), null, null, null, stamp, stamp);
+        bookings++;
+      }
+    }
+  })();
   count('visits', bookings);
   for (const index of indexes) db.exec(index.sql);
   for (const trigger of triggers) db.exec(trigger.sql);

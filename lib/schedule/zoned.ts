@@ -35,12 +35,22 @@ export function zonedToUtc(date: string, time: string, timeZone: string): Date {
   return new Date(guess);
 }
 
+// formatToParts costs tens of microseconds; a board of thousands of visits repeats the same few
+// hundred start times, so answers are kept per (time zone, instant), the cache emptied when large.
+const zonedCache = new Map<string, { date: string; time: string }>();
+
 /** The instant's date and HH:MM in the time zone. */
 export function utcToZoned(instant: Date | string, timeZone: string): { date: string; time: string } {
   const t = typeof instant === 'string' ? new Date(instant) : instant;
+  const key = `${timeZone} ${t.getTime()}`;
+  const hit = zonedCache.get(key);
+  if (hit) return { ...hit };
   const f = formatter('local', timeZone);
   const p = Object.fromEntries(f.formatToParts(t).map((x) => [x.type, x.value]));
-  return { date: `${p.year}-${p.month}-${p.day}`, time: `${p.hour}:${p.minute}` };
+  const out = { date: `${p.year}-${p.month}-${p.day}`, time: `${p.hour}:${p.minute}` };
+  if (zonedCache.size >= 20_000) zonedCache.clear();
+  zonedCache.set(key, out);
+  return { ...out };
 }
 
 /** Monday of the week containing `date`. */
