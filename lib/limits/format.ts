@@ -29,6 +29,28 @@ export function formatNumber(value: number): string {
   if (scaled < 1e5 || scaled >= 1e6) return formatNumberReference(value);
   const fraction = scaled - Math.floor(scaled);
   if (Math.abs(fraction - 0.5) < 1e-6) return formatNumberReference(value);
-  const rounded = Math.round(scaled) / POWERS_OF_TEN[k]!;
+  const digits = Math.round(scaled);
+  if (digits < 1e6 && magnitude >= 1e-6) return placePoint(digits, k, value < 0);
+  const rounded = digits / POWERS_OF_TEN[k]!;
   return String(value < 0 ? -rounded : rounded);
 }
+
+/**
+ * digits × 10^-k written out, for six digits and 0 ≤ k ≤ 11 (values from 1e-6 up to 1e6, which
+ * JavaScript prints without an exponent). The double nearest that decimal is what the reference
+ * prints, and the decimal itself is its shortest round-trip form: any other decimal of six
+ * digits or fewer lies a millionth away, far beyond one unit in the last place. So the digits are
+ * placed by hand rather than converting a double back to text, which is the slow step.
+ */
+function placePoint(digits: number, k: number, negative: boolean): string {
+  let text = String(digits);
+  let end = text.length;
+  while (end > 0 && text.charCodeAt(end - 1) === 48) end--; // trailing zeros of the fraction
+  const pointAt = text.length - k;
+  if (pointAt >= end) text = text.slice(0, pointAt);
+  else if (pointAt > 0) text = `${text.slice(0, pointAt)}.${text.slice(pointAt, end)}`;
+  else text = `0.${ZEROS.slice(0, -pointAt)}${text.slice(0, end)}`;
+  return negative ? `-${text}` : text;
+}
+
+const ZEROS = '00000000000';
