@@ -253,21 +253,34 @@ function deepFreeze<T>(value: T): T {
  */
 export function createLimitResolver(input: { chain: readonly JurisdictionLevel[]; orgDefault: JurisdictionLevel | null }): LimitResolver {
   const indexed = indexLevels(input.chain, input.orgDefault);
-  const cache = new Map<string, ResolvedLimits>();
+  // date → category → fuel → [without, with out-of-scope rules]. Nested rather than one joined
+  // key, so a hit (nearly every call in a bulk run) builds no string.
+  const cache = new Map<string, Map<string, Map<string, [ResolvedLimits | undefined, ResolvedLimits | undefined]>>>();
+  let size = 0;
   return {
     resolve(appliance, date, options) {
       const includeOutOfScope = options?.includeOutOfScope ?? false;
-      const key = `${appliance.category}|${appliance.fuel}|${date}|${includeOutOfScope ? 1 : 0}`;
-      const hit = cache.get(key);
+      const slot = includeOutOfScope ? 1 : 0;
+      const hit = cache.get(date)?.get(appliance.category)?.get(appliance.fuel)?.[slot];
       if (hit !== undefined) return hit;
       checkDate(date);
-      if (cache.size >= RESOLVER_CACHE_LIMIT) cache.clear();
+      if (size >= RESOLVER_CACHE_LIMIT) {
+        cache.clear();
+        size = 0;
+      }
       const resolved = deepFreeze(resolveIndexed(indexed, appliance, date, includeOutOfScope));
-      cache.set(key, resolved);
+      let byCategory = cache.get(date);
+      if (byCategory === undefined) cache.set(date, (byCategory = new Map()));
+      let byFuel = byCategory.get(appliance.category);
+      if (byFuel === undefined) byCategory.set(appliance.category, (byFuel = new Map()));
+      let pair = byFuel.get(appliance.fuel);
+      if (pair === undefined) byFuel.set(appliance.fuel, (pair = [undefined, undefined]));
+      pair[slot] = resolved;
+      size++;
       return resolved;
     },
     get size() {
-      return cache.size;
+      return size;
     },
   };
 }
