@@ -9,15 +9,7 @@ import {
   requireInRange,
   type RangeRule,
 } from './guards';
-import {
-  airFreeCoFromCo2,
-  airFreeCoFromO2,
-  co2FromO2,
-  coCo2Ratio,
-  excessAirPct,
-  lambdaFromO2,
-  siegertLossPct,
-} from './flue-gas';
+import { airFreeFromCo2Of, airFreeFromO2Of, co2FromO2Of, excessAirOf, lambdaOf, ratioOf, siegertLossPct } from './flue-gas';
 
 export type FlueGasWarningCode =
   | 'co2_o2_mismatch'
@@ -78,7 +70,27 @@ function optional(field: OptionalField, value: unknown, range: RangeRule): numbe
   return requireInRange(field, value, range);
 }
 
-function fmt(value: number, decimals: number): string {
+const ZEROS = '000';
+
+/**
+ * value.toFixed(decimals) for the one or two decimals the warnings print. toFixed works in exact
+ * decimal arithmetic and is slow; below a million in the last place, the scaled value carries an
+ * error under 1e-9, so where it is not within 1e-6 of a half, rounding it picks the same digits.
+ * Ties, and anything larger, go to toFixed itself.
+ */
+function fmt(value: number, decimals: 1 | 2): string {
+  const scaled = Math.abs(value) * (decimals === 1 ? 10 : 100);
+  if (scaled < 1e6) {
+    const whole = Math.floor(scaled);
+    const fraction = scaled - whole;
+    if (Math.abs(fraction - 0.5) > 1e-6) {
+      let digits = String(fraction > 0.5 ? whole + 1 : whole);
+      if (digits.length <= decimals) digits = ZEROS.slice(0, decimals + 1 - digits.length) + digits;
+      const text = `${digits.slice(0, digits.length - decimals)}.${digits.slice(digits.length - decimals)}`;
+      // toFixed keeps the sign of a negative value that rounds to zero ("-0.00"), but not of -0.
+      return value < 0 ? `-${text}` : text;
+    }
+  }
   return value.toFixed(decimals);
 }
 
@@ -100,7 +112,7 @@ export function analyseFlueGas(input: FlueGasInput): FlueGasAnalysis {
   const co2MaxPct = optional('co2MaxPct', input.co2MaxPct, CO2_MAX_PCT_RANGE) ?? co2MaxForFuel(fuel);
 
   const warnings: FlueGasWarning[] = [];
-  const co2FromO2Pct = o2Pct === null ? null : co2FromO2(o2Pct, co2MaxPct);
+  const co2FromO2Pct = o2Pct === null ? null : co2FromO2Of(o2Pct, co2MaxPct);
 
   if (co2Pct !== null && co2FromO2Pct !== null && Math.abs(co2Pct - co2FromO2Pct) > CO2_O2_MISMATCH_PCT_POINTS) {
     warnings.push({
@@ -156,12 +168,13 @@ export function analyseFlueGas(input: FlueGasInput): FlueGasAnalysis {
     fuel,
     co2MaxPct,
     coPpm,
-    ratio: co2Pct === null ? null : coCo2Ratio(coPpm, co2Pct),
-    coAirFreeFromO2Ppm: o2Pct === null ? null : airFreeCoFromO2(coPpm, o2Pct),
-    coAirFreeFromCo2Ppm: co2Pct === null ? null : airFreeCoFromCo2(coPpm, co2Pct, co2MaxPct),
+    // Every value was checked above, so the formulas run without checking again.
+    ratio: co2Pct === null ? null : ratioOf(coPpm, co2Pct),
+    coAirFreeFromO2Ppm: o2Pct === null ? null : airFreeFromO2Of(coPpm, o2Pct),
+    coAirFreeFromCo2Ppm: co2Pct === null ? null : airFreeFromCo2Of(coPpm, co2Pct, co2MaxPct),
     co2FromO2Pct,
-    lambda: o2Pct === null ? null : lambdaFromO2(o2Pct),
-    excessAirPct: o2Pct === null ? null : excessAirPct(o2Pct),
+    lambda: o2Pct === null ? null : lambdaOf(o2Pct),
+    excessAirPct: o2Pct === null ? null : excessAirOf(o2Pct),
     flueLossPct,
     netEfficiencyPct: flueLossPct === null ? null : 100 - flueLossPct,
     warnings,

@@ -14,19 +14,47 @@ const O2_IN_AIR_PCT = 20.9;
 /** The Siegert formula is published with 21, not 20.9; kept as published. */
 const SIEGERT_O2_REFERENCE_PCT = 21;
 
+// The formulas on values already checked, so analyseFlueGas, which checks its whole input once,
+// does not check each value again per figure. The exported functions below check, then call these.
+
+export function ratioOf(co: number, co2: number): number {
+  return co / 10_000 / co2;
+}
+
+export function airFreeFromO2Of(co: number, o2: number): number {
+  // Factor first, so an undiluted sample (O2 = 0) returns CO exactly.
+  return co * (O2_IN_AIR_PCT / (O2_IN_AIR_PCT - o2));
+}
+
+export function airFreeFromCo2Of(co: number, co2: number, co2Max: number): number {
+  return co * (co2Max / co2);
+}
+
+export function co2FromO2Of(o2: number, co2Max: number): number {
+  // Fraction first, so the result never rounds above CO2max (at O2 = 0 it is exactly CO2max).
+  return co2Max * ((O2_IN_AIR_PCT - o2) / O2_IN_AIR_PCT);
+}
+
+export function lambdaOf(o2: number): number {
+  return O2_IN_AIR_PCT / (O2_IN_AIR_PCT - o2);
+}
+
+export function excessAirOf(o2: number): number {
+  return (100 * o2) / (O2_IN_AIR_PCT - o2);
+}
+
 /** CO/CO2 ratio (dimensionless, e.g. 0.004 — not a percentage): (CO ppm / 10 000) / CO2 %. BS 7967 method. */
 export function coCo2Ratio(coPpm: number, co2Pct: number): number {
   const co = requireInRange('coPpm', coPpm, CO_PPM_RANGE);
   const co2 = requireInRange('co2Pct', co2Pct, CO2_PCT_RANGE);
-  return co / 10_000 / co2;
+  return ratioOf(co, co2);
 }
 
 /** Air-free CO (ppm) by the O2 route, referred to 20.9 % O2: CO × 20.9 / (20.9 − O2). */
 export function airFreeCoFromO2(coPpm: number, o2Pct: number): number {
   const co = requireInRange('coPpm', coPpm, CO_PPM_RANGE);
   const o2 = requireInRange('o2Pct', o2Pct, O2_PCT_RANGE);
-  // Factor first, so an undiluted sample (O2 = 0) returns CO exactly.
-  return co * (O2_IN_AIR_PCT / (O2_IN_AIR_PCT - o2));
+  return airFreeFromO2Of(co, o2);
 }
 
 /**
@@ -37,27 +65,24 @@ export function airFreeCoFromCo2(coPpm: number, co2Pct: number, co2MaxPct: numbe
   const co = requireInRange('coPpm', coPpm, CO_PPM_RANGE);
   const co2 = requireInRange('co2Pct', co2Pct, CO2_PCT_RANGE);
   const co2Max = requireInRange('co2MaxPct', co2MaxPct, CO2_MAX_PCT_RANGE);
-  return co * (co2Max / co2);
+  return airFreeFromCo2Of(co, co2, co2Max);
 }
 
 /** CO2 (%) expected from measured O2: CO2max × (20.9 − O2) / 20.9. */
 export function co2FromO2(o2Pct: number, co2MaxPct: number): number {
   const o2 = requireInRange('o2Pct', o2Pct, O2_PCT_RANGE);
   const co2Max = requireInRange('co2MaxPct', co2MaxPct, CO2_MAX_PCT_RANGE);
-  // Fraction first, so the result never rounds above CO2max (at O2 = 0 it is exactly CO2max).
-  return co2Max * ((O2_IN_AIR_PCT - o2) / O2_IN_AIR_PCT);
+  return co2FromO2Of(o2, co2Max);
 }
 
 /** Air ratio lambda, field form from O2: 20.9 / (20.9 − O2). Ignores fuel-specific flue-gas volume. */
 export function lambdaFromO2(o2Pct: number): number {
-  const o2 = requireInRange('o2Pct', o2Pct, O2_PCT_RANGE);
-  return O2_IN_AIR_PCT / (O2_IN_AIR_PCT - o2);
+  return lambdaOf(requireInRange('o2Pct', o2Pct, O2_PCT_RANGE));
 }
 
 /** Excess air (%), field form from O2: 100 × O2 / (20.9 − O2). */
 export function excessAirPct(o2Pct: number): number {
-  const o2 = requireInRange('o2Pct', o2Pct, O2_PCT_RANGE);
-  return (100 * o2) / (O2_IN_AIR_PCT - o2);
+  return excessAirOf(requireInRange('o2Pct', o2Pct, O2_PCT_RANGE));
 }
 
 export interface FlueLossInput {
