@@ -27,6 +27,8 @@ function percentOfLimit(p: TrendPoint): number | null {
   return p.ratio !== null && p.serviceLimit !== null && p.serviceLimit > 0 ? Math.round((p.ratio / p.serviceLimit) * 100) : null;
 }
 
+const sentence = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+
 /** The reasons in a few words, for the visit overview's cards. */
 function shortReasons(trend: FieldTrend): string {
   const parts: string[] = [];
@@ -46,7 +48,7 @@ export function TrendFlag({ trend, compact = false }: { trend: FieldTrend; compa
         <RisingShape />
         Getting worse
       </p>
-      <p className="mt-0.5">{compact ? `${shortReasons(trend)}.` : trend.message.replace(/^Getting worse: /, '')}</p>
+      <p className="mt-0.5">{compact ? `${shortReasons(trend)}.` : sentence(trend.message.replace(/^Getting worse: /, ''))}</p>
     </div>
   );
 }
@@ -64,7 +66,7 @@ export function RatioSparkline({ points, width = 132, height = 40 }: { points: T
   const limits = [...new Set(points.map((p) => p.serviceLimit).filter((v): v is number => v !== null))];
   const label = `CO/CO2 ratio at the last ${points.length} inspections: ${points.map((p) => formatRatio(p.ratio)).join(', ')}${limits.length ? `; service limit ${limits.join(', then ')}` : ''}`;
   return (
-    <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label={label} className="shrink-0 overflow-visible" data-testid="ratio-sparkline">
+    <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label={label} className="h-auto max-w-full shrink-0" data-testid="ratio-sparkline">
       <rect x="0" y="0" width={width} height={height} rx="4" className="fill-paper" />
       {limit ? <polyline points={limit} fill="none" stroke="currentColor" strokeWidth="1.5" strokeDasharray="4 3" className="text-service" /> : null}
       <polyline points={line} fill="none" stroke="currentColor" strokeWidth="2" strokeLinejoin="round" className="text-ink" />
