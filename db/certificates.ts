@@ -571,7 +571,8 @@ export async function listPortalSites(audience: SiteAudience, siteId?: string): 
             overallVerdict: c.overall_verdict as VerdictLevel,
           }
         : null,
-      openFindings: c ? openFindingsOf(String(c.number_text), parse<CertificateContent>(c.content_json, {} as CertificateContent)) : [],
+      // A certificate's frozen content can be large: it is parsed only when it can hold an open finding.
+      openFindings: c && typeof c.content_json === 'string' && /"(service|danger)"/.test(c.content_json) ? openFindingsOf(String(c.number_text), parse<CertificateContent>(c.content_json, {} as CertificateContent)) : [],
       renewalRequested: requested.has(String(s.id)),
     };
   });

@@ -34,13 +34,21 @@ async function capture<T>(knex: Knex, fn: () => Promise<T>): Promise<Captured[]>
   return seen;
 }
 
-async function printPlans(knex: Knex, label: string, statements: Captured[]): Promise<void> {
+/** Each statement's plan as lines to print, and the secondary indexes the plans use. */
+async function explainPlans(knex: Knex, label: string, statements: Captured[]): Promise<{ lines: string[]; indexes: string[] }> {
+  const lines: string[] = [];
+  const used = new Set<string>();
   for (const s of statements) {
     if (!/^\s*select/i.test(s.sql)) continue;
     const plan = (await knex.raw(`explain query plan ${s.sql}`, s.bindings as Knex.RawBinding[])) as Array<{ detail: string }>;
-    console.log(`   plan ${label}: ${s.sql.replace(/\s+/g, ' ').slice(0, 110)}${s.sql.length > 110 ? '…' : ''}`);
-    for (const row of plan) console.log(`      ${row.detail}`);
+    lines.push(`   plan ${label}: ${s.sql.replace(/\s+/g, ' ').slice(0, 110)}${s.sql.length > 110 ? '…' : ''}`);
+    for (const row of plan) {
+      lines.push(`      ${row.detail}`);
+      const index = /USING (?:COVERING )?INDEX (\S+)/.exec(row.detail)?.[1];
+      if (index && !index.startsWith('sqlite_autoindex')) used.add(index);
+    }
   }
+  return { lines, indexes: [...used] };
 }
 
 /** Baseline measured in the same run: single-row autocommit inserts into a scratch table of the same file. */
@@ -125,15 +133,16 @@ async function main(): Promise<void> {
         : result && typeof result === 'object' && 'visits' in result
           ? `${(result as { visits: unknown[] }).visits.length} visits`
           : '';
+    const { lines, indexes } = await explainPlans(app, c.name, r.statements);
     record({
       name: `scale.${c.name}_p95`,
       value: r.p95,
       unit: 'ms',
       target: smoke ? 'smoke' : '≤ 80 ms',
       pass: smoke ? null : r.p95 <= 80,
-      note: `${rounds} calls, median ${r.median.toFixed(0)} ms; ${shown}`,
+      note: `${rounds} calls, median ${r.median.toFixed(0)} ms; ${shown}; plans use ${indexes.join(', ') || 'no secondary index'}`,
     });
-    await printPlans(app, c.name, r.statements);
+    for (const line of lines) console.log(line);
   }
   await app.destroy();
   writeFigures(figuresFile!);
