@@ -1,7 +1,7 @@
 // Insight: the office dashboard's figures open the lists behind them; the demo boiler whose ratio
-// keeps rising shows "Getting worse" on the office appliance-history page (the field visit screen
-// has not wired the trend component in yet, so the engineer's view is checked through the history
-// API the visit screen will cache); the room CO exposure estimate.
+// keeps rising shows "Getting worse" on the office appliance-history page and through the history
+// API; the room CO exposure estimate. The engineer's visit screen, online and offline, is checked in
+// field-insight.spec.ts.
 import { test, expect, ACCOUNTS } from './fixtures';
 import { SignInPage } from './pages';
 
