@@ -4,8 +4,8 @@ import type { Knex } from 'knex';
 
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('visits', (t) => {
-    // Renewals: every certified check of the organisation (db/reminders.ts certifiedChecks) reads
-    // only certified rows instead of walking all of the organisation's visits.
+    // Renewals: certified checks of the organisation (read when a site's stored renewal dates are
+    // recomputed, db/reminders.ts) come from certified rows only, not all of its visits.
     t.index(['organisation_id', 'status', 'certified_at'], 'visits_org_status_certified_index');
   });
   await knex.schema.alterTable('sites', (t) => {
