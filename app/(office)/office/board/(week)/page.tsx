@@ -2,8 +2,8 @@ import type { Metadata } from 'next';
 import { requirePageRole } from '@/lib/auth/session';
 import { getOrganisationTimeZone, listEngineers } from '@/db/schedule';
 import { dateInZone } from '@/lib/renewals/dates';
-import { Board } from './_components/board';
-import { CalendarFeeds } from './_components/calendar-feeds';
+import { Board } from '../_components/board';
+import { CalendarFeeds } from '../_components/calendar-feeds';
 
 export const metadata: Metadata = { title: 'Board' };
 export const dynamic = 'force-dynamic';
