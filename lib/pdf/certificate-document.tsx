@@ -316,8 +316,21 @@ export function CertificateDocument({ content: c, qrDataUrl, voided }: { content
   );
 }
 
+/**
+ * The check URL as a PNG data URL. Four pixels a module (156 px for a 37-module code in a 92 pt
+ * box, about 120 dpi) keeps every module an exact square, and an RGB image without an alpha
+ * channel (pngjs's colorType 2, passed through by qrcode to pngjs) is embedded by pdfkit as it
+ * is, where an RGBA one is decoded and split into image and mask on every render.
+ */
 export async function qrDataUrlFor(url: string): Promise<string> {
-  return QRCode.toDataURL(url, { errorCorrectionLevel: 'M', margin: 1, width: 300, color: { dark: '#1b2030', light: '#ffffff' } });
+  const options: QRCode.QRCodeToDataURLOptions & { rendererOpts: { colorType: 2 } } = {
+    errorCorrectionLevel: 'M',
+    margin: 1,
+    scale: 4,
+    color: { dark: '#1b2030', light: '#ffffff' },
+    rendererOpts: { colorType: 2 },
+  };
+  return QRCode.toDataURL(url, options);
 }
 
 export async function renderCertificatePdf(content: CertificateContent, voided: VoidMarking | null = null): Promise<Buffer> {
