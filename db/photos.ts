@@ -48,7 +48,9 @@ const UPLOADABLE = ['booked', 'on_site', 'submitted', 'no_access'];
 /** Checks the engineer may add this photo to the visit; returns an existing photo with the same id (a resend). */
 export async function checkPhotoUpload(input: { organisationId: string; engineerId: string; meta: PhotoMeta }): Promise<{ existing: Photo | null }> {
   const knex = db();
-  const visit = (await knex('visits').where({ id: input.meta.visitId, organisation_id: input.organisationId, engineer_id: input.engineerId }).first()) as Row | undefined;
+  // Looked up by id alone and checked here (scoped in SQL, SQLite may walk all of the engineer's visits).
+  const found = (await knex('visits').where({ id: input.meta.visitId }).first()) as Row | undefined;
+  const visit = found && found.organisation_id === input.organisationId && found.engineer_id === input.engineerId ? found : undefined;
   if (!visit) throw new AppError('not_found', 'No such visit among yours.');
   const existing = (await knex('photos').where({ id: input.meta.id }).first()) as Row | undefined;
   if (existing) {

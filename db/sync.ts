@@ -51,8 +51,9 @@ function payloadFields(issues: ReadonlyArray<{ path: ReadonlyArray<PropertyKey>;
 
 async function visitFor(knex: Knex, user: SyncUser, visitId: string): Promise<Row> {
   // Another organisation's visit, or one assigned to someone else, answers exactly like a missing one.
-  const visit = (await knex('visits').where({ id: visitId, organisation_id: user.organisationId, engineer_id: user.id }).first()) as Row | undefined;
-  if (!visit) throw new AppError('not_found', 'No such visit among yours.');
+  // Looked up by id alone (scoped in SQL, SQLite may walk all of the engineer's visits instead).
+  const visit = (await knex('visits').where({ id: visitId }).first()) as Row | undefined;
+  if (!visit || visit.organisation_id !== user.organisationId || visit.engineer_id !== user.id) throw new AppError('not_found', 'No such visit among yours.');
   return visit;
 }
 
@@ -505,11 +506,17 @@ function duplicateResult(id: string, user: SyncUser, row: Stored): MutationResul
   return { id, status: 'duplicate', ...(earlier.conflict ? { conflict: true } : {}) };
 }
 
-async function applyItem(user: SyncUser, item: unknown, index: number): Promise<MutationResult> {
+type Parsed = { mutation: Mutation; result?: undefined } | { mutation?: undefined; result: MutationResult };
+
+function parseItem(item: unknown, index: number): Parsed {
   const rawId = item && typeof item === 'object' && typeof (item as { id?: unknown }).id === 'string' ? (item as { id: string }).id : `#${index}`;
   const parsed = mutationSchema.safeParse(item);
-  if (!parsed.success) return rejected(rawId, new AppError('invalid_input', 'Some fields are not valid.', payloadFields(parsed.error.issues)));
-  const mutation = parsed.data;
+  if (!parsed.success) return { result: rejected(rawId, new AppError('invalid_input', 'Some fields are not valid.', payloadFields(parsed.error.issues))) };
+  return { mutation: parsed.data };
+}
+
+/** One mutation in its own transaction. */
+async function applyItem(user: SyncUser, mutation: Mutation): Promise<MutationResult> {
   const knex = db();
   try {
     const seen = (await knex('sync_mutations').where({ id: mutation.id }).first()) as Stored | undefined;
@@ -562,9 +569,360 @@ async function applyItem(user: SyncUser, item: unknown, index: number): Promise<
   }
 }
 
-/** Applies a batch in order; one result per item, each acknowledged only after its commit. */
+// ---- Runs of readings ------------------------------------------------------------------------
+// A phone sends mostly readings (and the arrival before them). A run of those is applied in ONE
+// transaction: the rows every item needs (its visit, inspection, appliance, analyser and the
+// readings already at its test point) are read once for the run, each item is checked against
+// them and the rows it adds are written together at the end. Each item is checked in full before
+// anything of it is written, so a refused item leaves nothing behind and the rest of the run still
+// applies, as one at a time. Anything unexpected (a database error, a concurrent request that
+// committed the same ids first) abandons the run's transaction and applies its items one at a time.
+
+const BATCHED_KINDS: ReadonlySet<Mutation['kind']> = new Set(['reading.record', 'visit.arrive']);
+
+/** A run's writes, in the order the foreign keys need. */
+type RunWrites = { inspections: Row[]; visits: Map<string, Row>; conflicts: Row[]; readings: Row[]; mutations: Row[] };
+
+type ReadingRow = { id: string; replaces_id: string | null; test_point: string; taken_at: unknown; recorded_by: unknown };
+
+/** What a run reads once, kept up to date with the rows it adds. */
+type RunState = {
+  user: SyncUser;
+  now: string;
+  visits: Map<string, Row>;
+  appliances: Map<string, Row>;
+  analysers: Map<string, Row>;
+  inspections: Map<string, Row>;
+  /** Readings at an inspection's test point: `${inspectionId}|${testPoint}`. */
+  atPoint: Map<string, ReadingRow[]>;
+  readingIds: Set<string>;
+  writes: RunWrites;
+};
+
+function unique<T>(values: Iterable<T>): T[] {
+  return [...new Set(values)];
+}
+
+/** The few reads and writes a run makes, so SQLite can run them as cached prepared statements. */
+type RunDb = {
+  /** Rows of the table whose column is one of the values (and which match the scope). */
+  rowsIn(table: string, column: string, values: readonly string[], scope?: Row, columns?: readonly string[]): Promise<Row[]>;
+  insert(table: string, rows: readonly Row[]): Promise<void>;
+  update(table: string, id: string, columns: Row): Promise<void>;
+};
+
+const IN_CHUNK = 500;
+
+function knexRunDb(trx: Knex.Transaction): RunDb {
+  return {
+    async rowsIn(table, column, values, scope = {}, columns = ['*']) {
+      const out: Row[] = [];
+      for (let i = 0; i < values.length; i += IN_CHUNK) out.push(...((await trx(table).where(scope).whereIn(column, values.slice(i, i + IN_CHUNK)).select(columns)) as Row[]));
+      return out;
+    },
+    async insert(table, rows) {
+      // 40 rows at a time stay far below any bound-parameter limit.
+      for (let i = 0; i < rows.length; i += 40) await trx(table).insert(rows.slice(i, i + 40));
+    },
+    async update(table, id, columns) {
+      await trx(table).where({ id }).update(columns);
+    },
+  };
+}
+
+type SqliteStatement = { all: (...params: unknown[]) => unknown[]; run: (...params: unknown[]) => unknown };
+type SqliteConnection = { prepare: (sql: string) => SqliteStatement };
+
+const statements = new WeakMap<object, Map<string, SqliteStatement>>();
+
+/**
+ * The same on better-sqlite3, straight on the transaction's connection: statements are prepared
+ * once per connection and reused, which spares the query builder and SQLite's parser per row.
+ * Table and column names here are this module's own constants; every value is a bound parameter.
+ */
+function sqliteRunDb(conn: SqliteConnection): RunDb {
+  let cache = statements.get(conn);
+  if (!cache) statements.set(conn, (cache = new Map()));
+  const prepared = (sql: string): SqliteStatement => {
+    let st = cache.get(sql);
+    if (!st) {
+      if (cache.size > 500) cache.clear();
+      st = conn.prepare(sql);
+      cache.set(sql, st);
+    }
+    return st;
+  };
+  const bind = (v: unknown) => (typeof v === 'boolean' ? (v ? 1 : 0) : v === undefined ? null : v);
+  const quote = (name: string) => `"${name}"`;
+  return {
+    async rowsIn(table, column, values, scope = {}, columns = ['*']) {
+      const out: Row[] = [];
+      const scoped = Object.keys(scope);
+      const cols = columns.map((c) => (c === '*' ? c : quote(c))).join(', ');
+      for (let i = 0; i < values.length; i += IN_CHUNK) {
+        const chunk = values.slice(i, i + IN_CHUNK);
+        const where = [...scoped.map((k) => `${quote(k)} = ?`), `${quote(column)} in (${chunk.map(() => '?').join(', ')})`].join(' and ');
+        out.push(...(prepared(`select ${cols} from ${quote(table)} where ${where}`).all(...scoped.map((k) => bind(scope[k])), ...chunk) as Row[]));
+      }
+      return out;
+    },
+    async insert(table, rows) {
+      for (const row of rows) {
+        const keys = Object.keys(row);
+        prepared(`insert into ${quote(table)} (${keys.map(quote).join(', ')}) values (${keys.map(() => '?').join(', ')})`).run(...keys.map((k) => bind(row[k])));
+      }
+    },
+    async update(table, id, columns) {
+      const keys = Object.keys(columns);
+      prepared(`update ${quote(table)} set ${keys.map((k) => `${quote(k)} = ?`).join(', ')} where "id" = ?`).run(...keys.map((k) => bind(columns[k])), id);
+    },
+  };
+}
+
+async function runDb(trx: Knex.Transaction): Promise<RunDb> {
+  const client = trx.client as { driverName?: string; acquireConnection: () => Promise<unknown> };
+  if (client.driverName === 'better-sqlite3') return sqliteRunDb((await client.acquireConnection()) as SqliteConnection);
+  return knexRunDb(trx);
+}
+
+/** Checks a reading against the run's rows and, only when all is well, adds its rows to the writes. */
+function stageReading(state: RunState, visit: Row, mutation: MutationOf<'reading.record'>): Outcome {
+  const p = mutation.payload;
+  const { user, now, writes } = state;
+  const inspectionKey = `${String(visit.id)}|${p.applianceId}`;
+  let inspection = state.inspections.get(inspectionKey);
+  let newInspection: Row | null = null;
+  if (!inspection) {
+    const appliance = state.appliances.get(p.applianceId);
+    if (!appliance || appliance.site_id !== visit.site_id || appliance.organisation_id !== visit.organisation_id) {
+      throw new AppError('invalid_input', 'That appliance is not at this site.', { applianceId: 'No such appliance at this site' });
+    }
+    newInspection = {
+      id: newId(),
+      organisation_id: user.organisationId,
+      visit_id: visit.id,
+      appliance_id: p.applianceId,
+      appliance_json: JSON.stringify(applianceDetailsFromRow(appliance)),
+      checklist_json: '{}',
+      created_at: now,
+      updated_at: now,
+    };
+    inspection = newInspection;
+  }
+  let analyser: Row | null = null;
+  if (p.analyserId !== null) {
+    analyser = state.analysers.get(p.analyserId) ?? null;
+    if (!analyser) throw new AppError('invalid_input', 'That analyser is not in your register.', { analyserId: 'No such analyser in the register' });
+  }
+  const values = canonicalReading(p.values);
+  const details = JSON.parse(String(inspection.appliance_json)) as ApplianceDetails;
+  const check = analyseReading(values, details.fuel);
+  if (check.error) {
+    const field = READING_FIELD[check.error.field] ?? check.error.field;
+    throw new AppError('invalid_input', check.error.message, { [field]: check.error.message });
+  }
+  if (state.readingIds.has(p.readingId)) throw new AppError('conflict', 'A reading with this id is already recorded.', { readingId: 'Already recorded' });
+
+  const pointKey = `${String(inspection.id)}|${p.testPoint}`;
+  const existing = state.atPoint.get(pointKey) ?? [];
+  let conflict: { server: unknown; summary: string } | null = null;
+  if (p.replacesId !== null) {
+    const replaced = existing.find((r) => r.id === p.replacesId);
+    if (!replaced) throw new AppError('invalid_input', 'The reading being corrected is not at this test point.', { replacesId: 'No such reading at this test point' });
+    const alreadyReplaced = existing.find((r) => r.replaces_id === p.replacesId);
+    if (alreadyReplaced) conflict = { server: { readingId: alreadyReplaced.id }, summary: `Two corrections of the same ${p.testPoint.replace('_', ' ')} reading; both are kept and both are judged.` };
+  } else {
+    const live = currentReadings(existing.map((r) => ({ id: r.id, replacesId: r.replaces_id ?? null, testPoint: r.test_point, takenAt: toIso(r.taken_at) ?? '', recordedBy: r.recorded_by })));
+    const someoneElse = live.find((r) => r.recordedBy !== user.id);
+    if (someoneElse) conflict = { server: { readingId: someoneElse.id }, summary: `Another ${p.testPoint.replace('_', ' ')} reading was recorded by someone else; both are kept and both are judged.` };
+  }
+
+  // Checked: from here on nothing refuses the item.
+  if (newInspection) {
+    writes.inspections.push(newInspection);
+    state.inspections.set(inspectionKey, newInspection);
+  }
+  if (conflict) {
+    writes.conflicts.push({
+      id: newId(),
+      organisation_id: user.organisationId,
+      visit_id: visit.id,
+      appliance_id: p.applianceId,
+      kind: 'reading',
+      mutation_id: mutation.id,
+      server_json: JSON.stringify(conflict.server),
+      client_json: JSON.stringify({ readingId: p.readingId }),
+      summary: conflict.summary,
+      created_at: now,
+    });
+  }
+  writes.readings.push({
+    id: p.readingId,
+    organisation_id: user.organisationId,
+    inspection_id: inspection.id,
+    test_point: p.testPoint,
+    replaces_id: p.replacesId,
+    co_ppm: values.coPpm,
+    co2_pct: values.co2Pct,
+    o2_pct: values.o2Pct,
+    flue_temp_c: values.flueTempC,
+    air_temp_c: values.airTempC,
+    temp_unit: values.tempUnit,
+    analyser_id: p.analyserId,
+    taken_at: p.takenAt,
+    recorded_by: user.id,
+    created_at: now,
+  });
+  state.readingIds.add(p.readingId);
+  state.atPoint.set(pointKey, [...existing, { id: p.readingId, replaces_id: p.replacesId, test_point: p.testPoint, taken_at: p.takenAt, recorded_by: user.id }]);
+  const warnings: string[] = [];
+  if (analyser && values.coPpm > Number(analyser.co_range_max_ppm)) {
+    warnings.push(`CO ${values.coPpm} ppm is above the analyser's range (${Number(analyser.co_range_max_ppm)} ppm): the true value may be higher.`);
+  }
+  return { conflict: conflict !== null, warnings };
+}
+
+async function applyRunInOneTransaction(user: SyncUser, mutations: readonly Mutation[]): Promise<MutationResult[]> {
+  return db().transaction(async (trx) => {
+    const now = nowIso();
+    const q = await runDb(trx);
+    const writes: RunWrites = { inspections: [], visits: new Map(), conflicts: [], readings: [], mutations: [] };
+    const seen = new Map((await q.rowsIn('sync_mutations', 'id', unique(mutations.map((m) => m.id)))).map((r) => [String(r.id), r as unknown as Stored]));
+    const fresh = mutations.filter((m) => !seen.has(m.id));
+    const visitIds = unique(fresh.map((m) => m.visitId));
+    const readings = fresh.filter((m): m is MutationOf<'reading.record'> => m.kind === 'reading.record').map((m) => m.payload);
+    const applianceIds = unique(readings.map((p) => p.applianceId));
+    const analyserIds = unique(readings.flatMap((p) => (p.analyserId === null ? [] : [p.analyserId])));
+    // Another organisation's visit, or one assigned to someone else, is simply not found. Read by
+    // id alone and checked here: scoped in SQL, SQLite walks all of the engineer's visits instead.
+    const visits = (await q.rowsIn('visits', 'id', visitIds)).filter((v) => v.organisation_id === user.organisationId && v.engineer_id === user.id);
+    const inspections = applianceIds.length ? await q.rowsIn('inspections', 'visit_id', visits.map((v) => String(v.id)), {}) : [];
+    const wanted = new Set(applianceIds);
+    const ownInspections = inspections.filter((i) => wanted.has(String(i.appliance_id)));
+    const state: RunState = {
+      user,
+      now,
+      visits: new Map(visits.map((v) => [String(v.id), v])),
+      appliances: new Map((await q.rowsIn('appliances', 'id', applianceIds, { organisation_id: user.organisationId })).map((a) => [String(a.id), a])),
+      analysers: new Map((await q.rowsIn('analysers', 'id', analyserIds, { organisation_id: user.organisationId })).map((a) => [String(a.id), a])),
+      inspections: new Map(ownInspections.map((i) => [`${String(i.visit_id)}|${String(i.appliance_id)}`, i])),
+      atPoint: new Map(),
+      readingIds: new Set((await q.rowsIn('readings', 'id', unique(readings.map((p) => p.readingId)), {}, ['id'])).map((r) => String(r.id))),
+      writes,
+    };
+    const atPoint = await q.rowsIn('readings', 'inspection_id', ownInspections.map((i) => String(i.id)), {}, ['id', 'inspection_id', 'test_point', 'replaces_id', 'taken_at', 'recorded_by']);
+    for (const r of atPoint) {
+      const key = `${String(r.inspection_id)}|${String(r.test_point)}`;
+      const list = state.atPoint.get(key) ?? [];
+      list.push(r as unknown as ReadingRow);
+      state.atPoint.set(key, list);
+    }
+
+    const appliedHere = new Map<string, Outcome>();
+    const results: MutationResult[] = [];
+    for (const mutation of mutations) {
+      const earlier = seen.get(mutation.id);
+      if (earlier) {
+        results.push(duplicateResult(mutation.id, user, earlier));
+        continue;
+      }
+      const here = appliedHere.get(mutation.id);
+      if (here) {
+        results.push({ id: mutation.id, status: 'duplicate', ...(here.conflict ? { conflict: true } : {}) });
+        continue;
+      }
+      try {
+        const visit = state.visits.get(mutation.visitId);
+        if (!visit) throw new AppError('not_found', 'No such visit among yours.');
+        if (!OPEN_STATUSES.includes(String(visit.status))) {
+          throw new AppError('conflict', `This visit is ${String(visit.status).replace('_', ' ')}; it can no longer be changed from the field.`);
+        }
+        const outcome = mutation.kind === 'reading.record' ? stageReading(state, visit, mutation as MutationOf<'reading.record'>) : {};
+        if (visit.status === 'booked') {
+          const arrivedAt = mutation.kind === 'visit.arrive' ? mutation.payload.arrivedAt : mutation.at;
+          visit.status = 'on_site';
+          visit.arrived_at = arrivedAt;
+          writes.visits.set(String(visit.id), { status: 'on_site', arrived_at: arrivedAt, updated_at: now });
+        }
+        writes.mutations.push({
+          id: mutation.id,
+          organisation_id: user.organisationId,
+          user_id: user.id,
+          visit_id: mutation.visitId,
+          kind: mutation.kind,
+          result_json: JSON.stringify(outcome),
+          client_at: mutation.at,
+          applied_at: now,
+        });
+        appliedHere.set(mutation.id, outcome);
+        results.push({
+          id: mutation.id,
+          status: 'applied',
+          ...(outcome.conflict ? { conflict: true } : {}),
+          ...(outcome.warnings?.length ? { warnings: outcome.warnings } : {}),
+        });
+      } catch (err) {
+        if (err instanceof AppError) results.push(rejected(mutation.id, err));
+        else throw err;
+      }
+    }
+
+    await q.insert('inspections', writes.inspections);
+    for (const [id, columns] of writes.visits) await q.update('visits', id, columns);
+    await q.insert('sync_conflicts', writes.conflicts);
+    await q.insert('readings', writes.readings);
+    await q.insert('sync_mutations', writes.mutations);
+    return results;
+  });
+}
+
+async function applyRun(user: SyncUser, mutations: readonly Mutation[]): Promise<MutationResult[]> {
+  try {
+    return await applyRunInOneTransaction(user, mutations);
+  } catch (err) {
+    // Rolled back as a whole: each item again on its own, which sorts out races item by item.
+    console.warn('[sync] a run of readings fell back to one at a time:', err instanceof Error ? err.message : err);
+    const results: MutationResult[] = [];
+    for (const m of mutations) results.push(await applyItem(user, m));
+    return results;
+  }
+}
+
+/**
+ * Applies a batch in order; one result per item, each acknowledged only after its commit. Runs of
+ * readings (and arrivals) share one transaction; every other kind is applied on its own.
+ */
 export async function applySyncBatch(input: { user: SyncUser; items: readonly unknown[] }): Promise<MutationResult[]> {
+  const parsed = input.items.map((item, i) => parseItem(item, i));
   const results: MutationResult[] = [];
-  for (let i = 0; i < input.items.length; i++) results.push(await applyItem(input.user, input.items[i], i));
+  let i = 0;
+  while (i < parsed.length) {
+    const item = parsed[i]!;
+    if (item.result) {
+      results.push(item.result);
+      i++;
+      continue;
+    }
+    if (!BATCHED_KINDS.has(item.mutation.kind)) {
+      results.push(await applyItem(input.user, item.mutation));
+      i++;
+      continue;
+    }
+    // A run: consecutive batched kinds, with refused-at-parse items passed through in place.
+    const run: Mutation[] = [];
+    const slots: Array<MutationResult | null> = [];
+    while (i < parsed.length && (parsed[i]!.result || BATCHED_KINDS.has(parsed[i]!.mutation!.kind))) {
+      const p = parsed[i]!;
+      if (p.result) slots.push(p.result);
+      else {
+        run.push(p.mutation!);
+        slots.push(null);
+      }
+      i++;
+    }
+    const applied = await applyRun(input.user, run);
+    let k = 0;
+    for (const slot of slots) results.push(slot ?? applied[k++]!);
+  }
   return results;
 }
