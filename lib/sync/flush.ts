@@ -1,8 +1,13 @@
-// Sends the outbox to the server, oldest first. Mutations go in batches to POST /api/v1/sync,
-// photos one at a time to POST /api/v1/photos. An entry counts as sent only when the server says
-// it committed it (applied or duplicate); anything unanswered is sent again later with the same id.
-// Order is kept: after a network failure nothing behind the failed entry is sent until it goes.
-import { MAX_BATCH_MUTATIONS, type MutationResult, type SyncResponse } from '../validations/sync';
+// Sends the outbox to the server, oldest first. Mutations go in batches to POST /api/v1/sync, in
+// the order made; photos go to POST /api/v1/photos, a few at a time beside the batches. An entry
+// counts as sent only when the server says it committed it (applied or duplicate); anything
+// unanswered is sent again later with the same id.
+// Order: a photo starts only once every change made before it is committed (so the appliance it
+// names exists); changes made after a photo do not wait for its upload, since nothing the server
+// checks depends on a photo. After a network failure nothing is started behind the failed entry
+// until it goes.
+import type { MutationResult, SyncResponse } from '../validations/sync';
+import { MAX_BATCH_MUTATIONS } from '../validations/sync-limits';
 import type { FieldDb, MutationEntry, OutboxEntry, PhotoEntry } from './db';
 
 export type FlushOptions = {
@@ -11,6 +16,8 @@ export type FlushOptions = {
   /** Fewer than the server's limit, so a batch also stays well under its 1 MB body limit. */
   maxBatch?: number;
   maxBatchChars?: number;
+  /** Photo uploads in flight at once. */
+  maxParallelPhotos?: number;
   baseUrl?: string;
 };
 
@@ -34,16 +41,34 @@ async function putAll(db: FieldDb, entries: OutboxEntry[]): Promise<void> {
   await tx.done;
 }
 
-/** The entries waiting to go, in order, up to (not past) a failed entry still backing off. */
-async function due(db: FieldDb, now: Date): Promise<{ queue: OutboxEntry[]; waiting: boolean }> {
-  const all = await db.getAll('outbox');
-  const queue: OutboxEntry[] = [];
-  for (const e of all) {
-    if (e.status !== 'pending' && e.status !== 'failed') continue;
-    if (e.status === 'failed' && e.nextAttemptAt !== null && e.nextAttemptAt > now.toISOString()) return { queue, waiting: true };
-    queue.push(e);
+type Step = { photos: PhotoEntry[]; batch: MutationEntry[]; waiting: boolean };
+
+/**
+ * What to send next, in order, up to (not past) a failed entry still backing off: the photos at the
+ * head of the queue, then the changes after them up to the next photo. Reads the queue's keys and
+ * only the entries this step needs: the photos' bytes are not copied out for every step.
+ */
+async function nextStep(db: FieldDb, now: Date, limits: { maxBatch: number; maxChars: number; maxPhotos: number }): Promise<Step> {
+  const [pending, failedKeys] = await Promise.all([db.getAllKeysFromIndex('outbox', 'by-status', 'pending'), db.getAllKeysFromIndex('outbox', 'by-status', 'failed')]);
+  const keys = [...pending, ...failedKeys].sort((a, b) => a - b);
+  const step: Step = { photos: [], batch: [], waiting: false };
+  let chars = 0;
+  for (const key of keys) {
+    const e = await db.get('outbox', key);
+    if (!e || (e.status !== 'pending' && e.status !== 'failed')) continue; // changed meanwhile
+    if (e.status === 'failed' && e.nextAttemptAt !== null && e.nextAttemptAt > now.toISOString()) return { ...step, waiting: true };
+    if (e.type === 'photo') {
+      if (step.batch.length > 0 || step.photos.length >= limits.maxPhotos) break;
+      step.photos.push(e);
+      continue;
+    }
+    if (step.batch.length >= limits.maxBatch) break;
+    const size = JSON.stringify(e.mutation).length;
+    if (step.batch.length > 0 && chars + size > limits.maxChars) break;
+    step.batch.push(e);
+    chars += size;
   }
-  return { queue, waiting: false };
+  return step;
 }
 
 function failed(e: OutboxEntry, message: string, now: Date): OutboxEntry {
@@ -120,12 +145,12 @@ async function sendBatch(db: FieldDb, batch: MutationEntry[], opts: Required<Pic
   return { sent, rejected, stop };
 }
 
+/** Uploads a photo already marked as sending. */
 async function sendPhoto(db: FieldDb, entry: PhotoEntry, opts: Required<Pick<FlushOptions, 'fetch' | 'now' | 'baseUrl'>>): Promise<{ sent: number; rejected: number; stop: FlushOutcome['stoppedBy'] | null }> {
   if (!entry.bytes) {
     await putAll(db, [{ ...entry, status: 'rejected', lastError: 'The photo is no longer on this device', rejection: { id: entry.id, status: 'rejected', httpStatus: 410, code: 'gone', message: 'The photo is no longer on this device' } }]);
     return { sent: 0, rejected: 1, stop: null };
   }
-  await putAll(db, [{ ...entry, status: 'sending' }]);
   const form = new FormData();
   for (const [key, value] of Object.entries(entry.meta)) if (value !== null && value !== undefined) form.set(key, String(value));
   form.set('file', new Blob([entry.bytes], { type: entry.mime }), `${entry.id}.jpg`);
@@ -154,36 +179,57 @@ async function sendPhoto(db: FieldDb, entry: PhotoEntry, opts: Required<Pick<Flu
   return { sent: 0, rejected: 1, stop: null };
 }
 
+/** Which reason to report when more than one thing stopped the flush. */
+const STOP_RANK: Record<FlushOutcome['stoppedBy'], number> = { signed_out: 3, network: 2, waiting: 1, done: 0 };
+
 /** Sends everything due, in order. Safe to call at any time; call it under flushExclusive in the app. */
 export async function flushOutbox(db: FieldDb, options: FlushOptions): Promise<FlushOutcome> {
   const opts = { fetch: options.fetch, now: options.now ?? (() => new Date()), baseUrl: options.baseUrl ?? '' };
-  const maxBatch = Math.min(options.maxBatch ?? 25, MAX_BATCH_MUTATIONS);
-  const maxChars = options.maxBatchChars ?? 600_000;
+  const limits = {
+    maxBatch: Math.min(options.maxBatch ?? 25, MAX_BATCH_MUTATIONS),
+    maxChars: options.maxBatchChars ?? 600_000,
+    maxPhotos: Math.max(1, options.maxParallelPhotos ?? 3),
+  };
   let sent = 0;
   let rejected = 0;
-  for (;;) {
-    const { queue, waiting } = await due(db, opts.now());
-    if (queue.length === 0) return { sent, rejected, stoppedBy: waiting ? 'waiting' : 'done' };
-    const head = queue[0]!;
-    let step;
-    if (head.type === 'photo') {
-      step = await sendPhoto(db, head, opts);
-    } else {
-      const batch: MutationEntry[] = [];
-      let chars = 0;
-      for (const e of queue) {
-        if (e.type !== 'mutation' || batch.length >= maxBatch) break;
-        const size = JSON.stringify(e.mutation).length;
-        if (batch.length > 0 && chars + size > maxChars) break;
-        batch.push(e);
-        chars += size;
-      }
-      step = await sendBatch(db, batch, opts);
-    }
+  let stop: FlushOutcome['stoppedBy'] | null = null;
+  const tally = (step: { sent: number; rejected: number; stop: FlushOutcome['stoppedBy'] | null }) => {
     sent += step.sent;
     rejected += step.rejected;
-    if (step.stop) return { sent, rejected, stoppedBy: step.stop };
+    if (step.stop && (stop === null || STOP_RANK[step.stop] > STOP_RANK[stop])) stop = step.stop;
+  };
+  const uploads = new Set<Promise<void>>();
+  let failure: unknown = null;
+  try {
+    while (stop === null) {
+      const step = await nextStep(db, opts.now(), limits);
+      // Every change before these photos is committed: they may go, a few at once.
+      const free = limits.maxPhotos - uploads.size;
+      const starting = step.photos.slice(0, Math.max(0, free));
+      if (starting.length) await putAll(db, starting.filter((p) => p.bytes).map((p) => ({ ...p, status: 'sending' })));
+      for (const photo of starting) {
+        const upload: Promise<void> = sendPhoto(db, photo, opts)
+          .then(tally, (err: unknown) => {
+            // The device's own storage failed mid-upload: stop starting more, and report it below.
+            failure ??= err;
+            tally({ sent: 0, rejected: 0, stop: 'network' });
+          })
+          .finally(() => uploads.delete(upload));
+        uploads.add(upload);
+      }
+      if (step.batch.length > 0) {
+        tally(await sendBatch(db, step.batch, opts));
+        continue;
+      }
+      if (uploads.size === 0 && starting.length === 0) return { sent, rejected, stoppedBy: step.waiting ? 'waiting' : 'done' };
+      // Nothing else may go until an upload finishes (a free slot, or the queue behind it).
+      if (starting.length === 0 || step.photos.length > starting.length) await Promise.race(uploads);
+    }
+  } finally {
+    await Promise.all(uploads);
   }
+  if (failure) throw failure;
+  return { sent, rejected, stoppedBy: stop ?? 'done' };
 }
 
 type LockManagerLike = { request: (name: string, options: { ifAvailable: boolean }, cb: (lock: unknown) => Promise<unknown>) => Promise<unknown> };
