@@ -277,6 +277,29 @@ describe('readings are never overwritten', () => {
   });
 });
 
+describe('a run of readings in one batch', () => {
+  // Exactly-once delivery by client-made ids and per-item answers: common practice, no source.
+  it('answers each item on its own: a resent id, a refused reading, a visit not yours and a correction of an earlier item', async () => {
+    const first = reading(VISIT, HEATER, { coPpm: 20 }, 'low_fire');
+    const elsewhere = reading(VISIT, applianceAt(10, 0), { coPpm: 20 }, 'low_fire');
+    const notMine = reading(visits.tomaszToday, applianceAt(10, 0), { coPpm: 20 }, 'low_fire');
+    const unknownAnalyser = reading(VISIT, HEATER, { coPpm: 20 }, 'as_left', { analyserId: randomUUID() });
+    const fix = reading(VISIT, HEATER, { coPpm: 21 }, 'low_fire', { replacesId: first.payload.readingId });
+    const { body } = await sync([first, first, elsewhere, notMine, unknownAnalyser, fix]);
+    expect(body.results.map((r) => r.status)).toEqual(['applied', 'duplicate', 'rejected', 'rejected', 'rejected', 'applied']);
+    expect(body.results[2]).toMatchObject({ httpStatus: 422, fields: { applianceId: 'No such appliance at this site' } });
+    expect(body.results[3]).toMatchObject({ httpStatus: 404 });
+    expect(body.results[4]).toMatchObject({ httpStatus: 422, fields: { analyserId: 'No such analyser in the register' } });
+    const rows = await db()('readings').whereIn('id', [first, elsewhere, notMine, unknownAnalyser, fix].map((m) => m.payload.readingId));
+    expect(rows.map((r) => r.id).sort()).toEqual([first.payload.readingId, fix.payload.readingId].sort());
+    expect(await db()('inspections').where({ visit_id: VISIT, appliance_id: applianceAt(10, 0) })).toHaveLength(0);
+    expect((await db()('sync_mutations').whereIn('id', [first, elsewhere, notMine, unknownAnalyser, fix].map((m) => m.id))).map((r) => r.id).sort()).toEqual([first.id, fix.id].sort());
+    // The same batch again: the applied ones are duplicates, the refused ones are refused again.
+    const again = await sync([first, elsewhere, fix]);
+    expect(again.body.results.map((r) => r.status)).toEqual(['duplicate', 'rejected', 'duplicate']);
+  });
+});
+
 describe('submit', () => {
   const SUBMIT_VISIT = demoIds.visit(3, 1);
 

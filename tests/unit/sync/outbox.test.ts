@@ -186,6 +186,52 @@ describe('sending', () => {
   });
 });
 
+describe('photos beside the changes', () => {
+  // Bounded parallel uploads after the changes they depend on: common practice, no source.
+  it('go up to three at a time, each after the changes made before it; later changes do not wait for an upload', async () => {
+    const log: string[] = [];
+    let inFlight = 0;
+    let most = 0;
+    const waiting: Array<() => void> = [];
+    const fetch = (async (url: string | URL | Request, init?: RequestInit) => {
+      if (String(url).endsWith('/api/v1/photos')) {
+        const id = String((init?.body as FormData).get('id'));
+        log.push(`photo ${id}`);
+        inFlight += 1;
+        most = Math.max(most, inFlight);
+        await new Promise<void>((resolve) => waiting.push(resolve));
+        inFlight -= 1;
+        return new Response(JSON.stringify({ photo: { id }, duplicate: false }), { status: 201 });
+      }
+      const body = JSON.parse(String(init?.body)) as { mutations: Mutation[] };
+      log.push(`batch ${body.mutations.map((m) => m.id).join(',')}`);
+      return new Response(JSON.stringify({ results: body.mutations.map((m) => ({ id: m.id, status: 'applied' })) }), { status: 200 });
+    }) as typeof globalThis.fetch;
+    const before = readingMutation(10);
+    await commitMutation(db, { mutation: before, label: 'Reading', lookup });
+    const photoIds = [randomUUID(), randomUUID(), randomUUID(), randomUUID()];
+    for (const id of photoIds) {
+      await commitPhoto(db, { visitId: VISIT, ref: { id, purpose: 'appliance', applianceId: APPLIANCE, findingId: null, caption: null, takenAt: null, thumbnail: null }, bytes: new Uint8Array([0xff, 0xd8, 0xff]).buffer, mime: 'image/jpeg', label: 'Photo' });
+    }
+    const after = readingMutation(20, 'low_fire');
+    await commitMutation(db, { mutation: after, label: 'Reading', lookup });
+
+    const flushing = flushOutbox(db, { fetch });
+    for (let i = 0; i < 200 && !log.includes(`batch ${after.id}`); i++) await new Promise((r) => setTimeout(r, 5));
+    // The change made before the photos went first; three photos are on their way, the fourth waits,
+    // and the change made after them has gone without waiting.
+    expect(log).toEqual([`batch ${before.id}`, ...photoIds.slice(0, 3).map((id) => `photo ${id}`), `batch ${after.id}`]);
+    while (log.length < 6 || waiting.length) {
+      waiting.splice(0).forEach((resolve) => resolve());
+      await new Promise((r) => setTimeout(r, 5));
+    }
+    expect(await flushing).toEqual({ sent: 6, rejected: 0, stoppedBy: 'done' });
+    expect(most).toBe(3);
+    expect(log[5]).toBe(`photo ${photoIds[3]}`);
+    expect(countEntries(await listEntries(db))).toMatchObject({ sent: 6, pending: 0, sending: 0 });
+  });
+});
+
 describe('surviving a reload', () => {
   it('changes caught mid-send are still there after the app is closed and reopened, and go once', async () => {
     const server = fakeServer();
