@@ -1,6 +1,7 @@
 // The offline outbox's wire format: POST /api/v1/sync takes a batch of mutations, each with a
 // client-made id so the server applies it exactly once, and answers one result per mutation.
 import { z } from 'zod';
+import { MAX_BATCH_MUTATIONS } from './sync-limits';
 import { VERDICT_LEVELS } from '../limits/types';
 import {
   applianceDetailsSchema,
@@ -77,7 +78,7 @@ export type Mutation = z.output<typeof mutationSchema>;
 export type MutationInput = z.input<typeof mutationSchema>;
 export type MutationOf<K extends MutationKind> = Extract<Mutation, { kind: K }>;
 
-export const MAX_BATCH_MUTATIONS = 50;
+export { MAX_BATCH_MUTATIONS };
 
 /** The batch is checked loosely so that one bad item is reported on its own, not as a failed batch. */
 export const syncBatchSchema = z

@@ -9,7 +9,7 @@ import { FIELD_DB_NAME, openFieldDb, type FieldDb, type OutboxEntry } from '@/li
 import { commitMutation, commitPhoto, getBundle, getPref, listRecords, saveBundle, setPref } from '@/lib/sync/store';
 import { listEntries, pruneSent, resetInterrupted, retryEntries } from '@/lib/sync/outbox';
 import { flushExclusive, type FlushOutcome } from '@/lib/sync/flush';
-import { mutationSchema, type Mutation } from '@/lib/validations/sync';
+import type { Mutation } from '@/lib/validations/sync';
 import type { FieldBundle, PhotoRef, VisitRecord } from '@/lib/field';
 import type { ApplianceLookup } from '@/lib/field/record';
 import type { PhotoMeta } from '@/lib/validations/inspection';
@@ -153,6 +153,8 @@ export function FieldProvider({ userId, children }: { userId: string; children: 
     async (mutation: Mutation, label: string) => {
       if (!db) throw new Error('The phone’s storage is not open yet; try again in a moment.');
       // A mutation the server would refuse is a bug here: stop it before it is saved and queued.
+      // The schemas (zod) load on the first change rather than with the app's first screen.
+      const { mutationSchema } = await import('@/lib/validations/sync');
       const checked = mutationSchema.parse(mutation);
       const { record } = await commitMutation(db, { mutation: checked, label, lookup });
       setRecords((current) => ({ ...current, [record.visitId]: record }));
