@@ -2,6 +2,10 @@
 // One visit on the phone. Its parts (overview, each appliance, rooms and gas, finish, no access) are
 // chosen by the URL's #fragment, so the whole visit is one page the service worker keeps for offline
 // use, and the phone's back button still steps between parts.
+// Only the overview comes with the page: the other parts (their forms, zod schemas, the signature
+// pad) load when first opened, or as soon as the engineer first touches the screen. The service
+// worker precaches their scripts, so they open offline too.
+import dynamic from 'next/dynamic';
 import Link from 'next/link';
 import { useEffect, useSyncExternalStore } from 'react';
 import { Alert } from '@/components/ui/alert';
@@ -9,10 +13,35 @@ import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { SyncStatus } from './sync-status';
 import { useVisit, type VisitContext } from './use-field';
 import { VisitOverview } from './visit-overview';
-import { ApplianceScreen } from './appliance-screen';
-import { InstallationScreen } from './installation-screen';
-import { FinishScreen } from './finish-screen';
-import { NoAccessScreen } from './no-access';
+
+const loadAppliance = () => import('./appliance-screen');
+const loadInstallation = () => import('./installation-screen');
+const loadFinish = () => import('./finish-screen');
+const loadNoAccess = () => import('./no-access');
+
+const opening = () => <p className="text-ink-soft">Opening…</p>;
+const ApplianceScreen = dynamic(() => loadAppliance().then((m) => m.ApplianceScreen), { ssr: false, loading: opening });
+const InstallationScreen = dynamic(() => loadInstallation().then((m) => m.InstallationScreen), { ssr: false, loading: opening });
+const FinishScreen = dynamic(() => loadFinish().then((m) => m.FinishScreen), { ssr: false, loading: opening });
+const NoAccessScreen = dynamic(() => loadNoAccess().then((m) => m.NoAccessScreen), { ssr: false, loading: opening });
+
+/** Fetches every part's script once the engineer first touches or types, so switching parts has no wait. */
+function usePreloadParts() {
+  useEffect(() => {
+    const preload = () => {
+      for (const load of [loadAppliance, loadInstallation, loadFinish, loadNoAccess]) void load().catch(() => undefined);
+    };
+    const events = ['pointerdown', 'keydown', 'touchstart'] as const;
+    const once = () => {
+      for (const e of events) window.removeEventListener(e, once, true);
+      preload();
+    };
+    for (const e of events) window.addEventListener(e, once, { capture: true, passive: true });
+    return () => {
+      for (const e of events) window.removeEventListener(e, once, true);
+    };
+  }, []);
+}
 
 function subscribe(callback: () => void) {
   window.addEventListener('hashchange', callback);
@@ -99,6 +128,7 @@ function VerdictBar({ ctx }: { ctx: VisitContext }) {
 export function VisitScreen({ visitId }: { visitId: string }) {
   const ctx = useVisit(visitId);
   const hash = useHash();
+  usePreloadParts();
 
   useEffect(() => {
     window.scrollTo({ top: 0 });
