@@ -1,21 +1,36 @@
 'use client';
 // Both sign-in forms: password for staff, e-mail link for customers. Same zod schemas as the server.
+// The schemas (zod) and next-auth's client load on the first submit, not with the page: the sign-in
+// page is the first thing a phone downloads, often on a weak signal.
 import { useState } from 'react';
 import { useRouter } from 'next/navigation';
-import { useForm } from 'react-hook-form';
-import { zodResolver } from '@hookform/resolvers/zod';
-import { signIn } from 'next-auth/react';
-import { linkSignInSchema, passwordSignInSchema, type LinkSignIn, type PasswordSignIn } from '@/lib/validations/auth';
+import { useForm, type Resolver } from 'react-hook-form';
+import type { LinkSignIn, PasswordSignIn } from '@/lib/validations/auth';
 import { Field, Input } from '@/components/ui/field';
 import { Button } from '@/components/ui/button';
 import { Alert } from '@/components/ui/alert';
 import { homeFor, isRole } from '@/lib/auth/roles';
 
+type AuthSchemas = typeof import('@/lib/validations/auth');
+
+/** A react-hook-form resolver that loads zod and the schema when the form is first checked. */
+function lazyZodResolver<T extends PasswordSignIn | LinkSignIn>(pick: (schemas: AuthSchemas) => AuthSchemas['passwordSignInSchema'] | AuthSchemas['linkSignInSchema']): Resolver<T> {
+  return async (values, context, options) => {
+    const [{ zodResolver }, schemas] = await Promise.all([import('@hookform/resolvers/zod'), import('@/lib/validations/auth')]);
+    return (zodResolver(pick(schemas)) as unknown as Resolver<T>)(values, context, options);
+  };
+}
+
+async function signIn(...args: Parameters<typeof import('next-auth/react').signIn>) {
+  const { signIn: nextAuthSignIn } = await import('next-auth/react');
+  return nextAuthSignIn(...args);
+}
+
 export function SignInForms({ callbackUrl, linkError }: { callbackUrl: string | null; linkError: string | null }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
-  const staff = useForm<PasswordSignIn>({ resolver: zodResolver(passwordSignInSchema), defaultValues: { email: '', password: '' } });
-  const customer = useForm<LinkSignIn>({ resolver: zodResolver(linkSignInSchema), defaultValues: { email: '' } });
+  const staff = useForm<PasswordSignIn>({ resolver: lazyZodResolver((m) => m.passwordSignInSchema), defaultValues: { email: '', password: '' } });
+  const customer = useForm<LinkSignIn>({ resolver: lazyZodResolver((m) => m.linkSignInSchema), defaultValues: { email: '' } });
 
   async function onStaff(values: PasswordSignIn) {
     setFormError(null);
