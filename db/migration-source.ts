@@ -10,6 +10,7 @@ import * as m040 from '../migrations/20261202_040_certificates';
 import * as m070 from '../migrations/20261202_070_scale_indexes';
 import * as m090 from '../migrations/20261202_090_double_precision';
 import * as m100 from '../migrations/20261202_100_renewal_dates';
+import * as m110 from '../migrations/20261202_110_board_portal_indexes';
 
 type Migration = { up: (knex: Knex) => Promise<void>; down: (knex: Knex) => Promise<void> };
 
@@ -25,6 +26,7 @@ export const MIGRATIONS: Array<[string, Migration]> = (
     ['20261202_040_certificates', m040],
     ['20261202_070_scale_indexes', m070],
     ['20261202_100_renewal_dates', m100],
+    ['20261202_110_board_portal_indexes', m110],
   ] as Array<[string, Migration]>
 ).sort(([a], [b]) => a.localeCompare(b));
 

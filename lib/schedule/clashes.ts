@@ -25,23 +25,37 @@ export type ClashCandidate = {
  * before site for the same pair, as comparing every pair in order would give.
  */
 export function findClashes(visits: ClashCandidate[], timeZone: string): Map<string, ClashWarning[]> {
-  const open = visits.filter((v) => OCCUPYING.includes(v.status));
+  const open: ClashCandidate[] = [];
+  for (const v of visits) if (OCCUPYING.includes(v.status)) open.push(v);
   // Pairs as [earlier index, later index, 0 = engineer | 1 = site].
   const pairs: Array<[number, number, 0 | 1]> = [];
   const byEngineer = new Map<string, number[]>();
-  const bySiteDay = new Map<string, number[]>();
-  open.forEach((v, i) => {
+  // Site and local date: a board's visits share a few dozen start instants, so each instant's local
+  // date is worked out once; a site's visits are then grouped by date within the site.
+  const localDate = new Map<string, string>();
+  const bySite = new Map<string, number[]>();
+  for (let i = 0; i < open.length; i++) {
+    const v = open[i]!;
     if (v.engineerId) {
-      const list = byEngineer.get(v.engineerId) ?? [];
-      list.push(i);
-      byEngineer.set(v.engineerId, list);
+      const list = byEngineer.get(v.engineerId);
+      if (list) list.push(i);
+      else byEngineer.set(v.engineerId, [i]);
     }
-    const key = `${v.siteId} ${utcToZoned(v.windowStart, timeZone).date}`;
-    const list = bySiteDay.get(key) ?? [];
-    list.push(i);
-    bySiteDay.set(key, list);
-  });
+    const list = bySite.get(v.siteId);
+    if (list) list.push(i);
+    else bySite.set(v.siteId, [i]);
+  }
+  const dateOf = (i: number): string => {
+    const start = open[i]!.windowStart;
+    let date = localDate.get(start);
+    if (date === undefined) {
+      date = utcToZoned(start, timeZone).date;
+      localDate.set(start, date);
+    }
+    return date;
+  };
   for (const list of byEngineer.values()) {
+    if (list.length < 2) continue;
     const sorted = [...list].sort((x, y) => (open[x]!.windowStart < open[y]!.windowStart ? -1 : open[x]!.windowStart > open[y]!.windowStart ? 1 : x - y));
     for (let p = 0; p < sorted.length; p++) {
       const a = open[sorted[p]!]!;
@@ -52,8 +66,13 @@ export function findClashes(visits: ClashCandidate[], timeZone: string): Map<str
       }
     }
   }
-  for (const list of bySiteDay.values()) {
-    for (let p = 0; p < list.length; p++) for (let q = p + 1; q < list.length; q++) pairs.push([list[p]!, list[q]!, 1]);
+  // Only a site with two or more visits can clash with itself; most have one, and need no date.
+  for (const list of bySite.values()) {
+    if (list.length < 2) continue;
+    for (let p = 0; p < list.length; p++) {
+      const day = dateOf(list[p]!);
+      for (let q = p + 1; q < list.length; q++) if (dateOf(list[q]!) === day) pairs.push([list[p]!, list[q]!, 1]);
+    }
   }
   pairs.sort((x, y) => x[0] - y[0] || x[1] - y[1] || x[2] - y[2]);
   const out = new Map<string, ClashWarning[]>();

@@ -11,9 +11,9 @@ import { VISIT_STATUS_LABELS, type VisitStatus } from '@/lib/schedule/lifecycle'
 import { VISIT_KIND_LABELS, type VisitKind } from '@/lib/validations/visits';
 import { Alert } from '@/components/ui/alert';
 import { ButtonLink } from '@/components/ui/button';
-import type { BoardVisit, ClashWarning, Engineer } from '@/db/schedule';
+import type { BoardCard, BoardVisit, ClashWarning, Engineer } from '@/db/schedule';
 
-type Visit = BoardVisit & { warnings: ClashWarning[] };
+type Visit = BoardCard & { warnings: ClashWarning[] };
 type BoardData = { timeZone: string; from: string; days: number; visits: Visit[]; engineers: Engineer[] };
 type Column = { key: string; title: string; subtitle?: string; date: string; engineerId?: string | null };
 
