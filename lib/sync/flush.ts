@@ -16,7 +16,7 @@ export type FlushOptions = {
   /** Fewer than the server's limit, so a batch also stays well under its 1 MB body limit. */
   maxBatch?: number;
   maxBatchChars?: number;
-  /** Photo uploads in flight at once. */
+  /** Photo uploads in flight at once (4 by default). */
   maxParallelPhotos?: number;
   baseUrl?: string;
 };
@@ -188,7 +188,7 @@ export async function flushOutbox(db: FieldDb, options: FlushOptions): Promise<F
   const limits = {
     maxBatch: Math.min(options.maxBatch ?? 25, MAX_BATCH_MUTATIONS),
     maxChars: options.maxBatchChars ?? 600_000,
-    maxPhotos: Math.max(1, options.maxParallelPhotos ?? 3),
+    maxPhotos: Math.max(1, options.maxParallelPhotos ?? 4),
   };
   let sent = 0;
   let rejected = 0;

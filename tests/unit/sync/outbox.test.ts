@@ -188,7 +188,7 @@ describe('sending', () => {
 
 describe('photos beside the changes', () => {
   // Bounded parallel uploads after the changes they depend on: common practice, no source.
-  it('go up to three at a time, each after the changes made before it; later changes do not wait for an upload', async () => {
+  it('go no more than the limit at a time (three here), each after the changes made before it; later changes do not wait for an upload', async () => {
     const log: string[] = [];
     let inFlight = 0;
     let most = 0;
@@ -216,7 +216,7 @@ describe('photos beside the changes', () => {
     const after = readingMutation(20, 'low_fire');
     await commitMutation(db, { mutation: after, label: 'Reading', lookup });
 
-    const flushing = flushOutbox(db, { fetch });
+    const flushing = flushOutbox(db, { fetch, maxParallelPhotos: 3 });
     for (let i = 0; i < 200 && !log.includes(`batch ${after.id}`); i++) await new Promise((r) => setTimeout(r, 5));
     // The change made before the photos went first; three photos are on their way, the fourth waits,
     // and the change made after them has gone without waiting.
