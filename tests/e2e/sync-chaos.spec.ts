@@ -104,6 +104,8 @@ test('sync survives duplicates, reordering, dropped connections and kill -9', as
       const dropThis = !killNow && rand() < 0.1;
       counts.requests++;
       const sending = fetch(`${base}/api/v1/sync`, { method: 'POST', headers: { 'content-type': 'application/json', cookie, origin: base }, body, signal: controller.signal });
+      // Listened for before the kill: a fast answer can let the process exit before the loop gets there.
+      const exited = killNow ? new Promise((r) => app.once('exit', r)) : null;
       if (killNow) {
         setTimeout(() => app.kill('SIGKILL'), 15);
       } else if (dropThis) {
@@ -126,7 +128,7 @@ test('sync survives duplicates, reordering, dropped connections and kill -9', as
 
       if (killNow) {
         counts.kills++;
-        await new Promise((r) => app.once('exit', r));
+        await exited;
         // With the server dead, every mutation is either wholly applied (recorded and its row
         // present) or not at all; acknowledged ones are certainly recorded.
         const check = new Database(dbFile, { readonly: true });
