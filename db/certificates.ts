@@ -6,6 +6,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { db } from './knex';
 import { toDateOnly, toIso } from './rows';
+import { selectArrays } from './array-rows';
 import { recordAudit, type Actor } from './audit';
 import { getVisitReport, type VisitReport } from './inspections';
 import { loadLimitContextForSite } from './code-profiles';
@@ -555,27 +556,27 @@ export async function listPortalSites(audience: SiteAudience, siteId?: string): 
   if (audience.landlordId) q.andWhere('s.landlord_id', audience.landlordId);
   if (audience.homeownerId) q.andWhere('s.homeowner_id', audience.homeownerId);
   if (siteId) q.andWhere('s.id', siteId);
-  const rows: Row[] = await q;
-  return rows.map((s) => {
-    const expiresOn = s.certificate_id ? (toDateOnly(s.expires_on) ?? '') : '';
+  const rows = await selectArrays(knex, q);
+  return rows.map(([id, reference, line1, line2, town, postcode, renewalRequested, certificateId, numberText, issuedOn, expires, verdict, content]) => {
+    const expiresOn = certificateId ? (toDateOnly(expires) ?? '') : '';
     return {
-      id: String(s.id),
-      reference: String(s.reference),
-      address: s.address_line1 && s.address_line2 ? `${s.address_line1}, ${s.address_line2}` : String(s.address_line1 || s.address_line2 || ''),
-      town: String(s.town),
-      postcode: String(s.postcode),
-      current: s.certificate_id
+      id: String(id),
+      reference: String(reference),
+      address: line1 && line2 ? `${line1}, ${line2}` : String(line1 || line2 || ''),
+      town: String(town),
+      postcode: String(postcode),
+      current: certificateId
         ? {
-            id: String(s.certificate_id),
-            numberText: String(s.number_text),
-            issuedOn: toDateOnly(s.issued_on) ?? '',
+            id: String(certificateId),
+            numberText: String(numberText),
+            issuedOn: toDateOnly(issuedOn) ?? '',
             expiresOn,
             status: certificateStatus({ voidedAt: null, expiresOn, today }),
-            overallVerdict: s.overall_verdict as VerdictLevel,
+            overallVerdict: verdict as VerdictLevel,
           }
         : null,
-      openFindings: typeof s.content_json === 'string' && /"(service|danger)"/.test(s.content_json) ? openFindingsOf(String(s.number_text), parse<CertificateContent>(s.content_json, {} as CertificateContent)) : [],
-      renewalRequested: Number(s.renewal_requested) === 1,
+      openFindings: typeof content === 'string' && /"(service|danger)"/.test(content) ? openFindingsOf(String(numberText), parse<CertificateContent>(content, {} as CertificateContent)) : [],
+      renewalRequested: Number(renewalRequested) === 1,
     };
   });
 }

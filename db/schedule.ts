@@ -5,6 +5,7 @@ import crypto from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from './knex';
 import { toIso } from './rows';
+import { selectArrays } from './array-rows';
 import { visitCoreFromRow } from './visits';
 import { recordAudit, type Actor } from './audit';
 import { newId } from '@/lib/ids';
@@ -100,35 +101,35 @@ export async function listBoard(input: { organisationId: string; from: string; d
   // the lower bound lets the board's index (migrations/…_110) skip every past visit, and the
   // visit columns read here are all in that index, so no visit row is looked up.
   const earliest = new Date(Date.parse(start) - 2 * 86_400_000).toISOString();
-  const rows: Array<Record<string, unknown>> = await knex('visits as v')
-    .join('sites as s', 's.id', 'v.site_id')
-    .where('v.organisation_id', input.organisationId)
-    .andWhere('v.window_start', '>=', earliest)
-    .andWhere('v.window_start', '<', end)
-    .andWhere('v.window_end', '>', start)
-    .select('v.id', 'v.site_id', 'v.engineer_id', 'v.kind', 'v.status', 'v.window_start', 'v.window_end', 's.reference', 's.address_line1', 's.address_line2', 's.town', 's.postcode')
-    .orderBy('v.window_start');
-  const engineerIds = [...new Set(rows.map((r) => r.engineer_id).filter((id): id is string => typeof id === 'string'))];
+  const rows = await selectArrays(
+    knex,
+    knex('visits as v')
+      .join('sites as s', 's.id', 'v.site_id')
+      .where('v.organisation_id', input.organisationId)
+      .andWhere('v.window_start', '>=', earliest)
+      .andWhere('v.window_start', '<', end)
+      .andWhere('v.window_end', '>', start)
+      .select('v.id', 'v.site_id', 'v.engineer_id', 'v.kind', 'v.status', 'v.window_start', 'v.window_end', 's.reference', 's.address_line1', 's.address_line2', 's.town', 's.postcode')
+      .orderBy('v.window_start'),
+  );
+  const engineerIds = [...new Set(rows.map((r) => r[2]).filter((id): id is string => typeof id === 'string'))];
   const names = new Map<string, string>();
   if (engineerIds.length) for (const u of await knex('users').whereIn('id', engineerIds).select('id', 'name')) names.set(String(u.id), String(u.name));
-  const all: Array<BoardCard & { warnings: ClashWarning[] }> = rows.map((r) => {
-    const engineerId = (r.engineer_id as string | null) ?? null;
-    return {
-      id: String(r.id),
-      siteId: String(r.site_id),
-      siteReference: String(r.reference),
-      address: r.address_line1 && r.address_line2 ? `${r.address_line1}, ${r.address_line2}` : String(r.address_line1 || r.address_line2 || ''),
-      town: String(r.town),
-      postcode: String(r.postcode),
-      engineerId,
-      engineerName: engineerId ? (names.get(engineerId) ?? null) : null,
-      kind: String(r.kind),
-      status: r.status as VisitStatus,
-      windowStart: instantText(r.window_start),
-      windowEnd: instantText(r.window_end),
-      warnings: [],
-    };
-  });
+  const all: Array<BoardCard & { warnings: ClashWarning[] }> = rows.map(([id, siteId, engineerId, kind, status, windowStart, windowEnd, reference, line1, line2, town, postcode]) => ({
+    id: String(id),
+    siteId: String(siteId),
+    siteReference: String(reference),
+    address: line1 && line2 ? `${line1}, ${line2}` : String(line1 || line2 || ''),
+    town: String(town),
+    postcode: String(postcode),
+    engineerId: typeof engineerId === 'string' ? engineerId : null,
+    engineerName: typeof engineerId === 'string' ? (names.get(engineerId) ?? null) : null,
+    kind: String(kind),
+    status: status as VisitStatus,
+    windowStart: instantText(windowStart),
+    windowEnd: instantText(windowEnd),
+    warnings: [],
+  }));
   const clashes = findClashes(all, timeZone);
   const visits: Array<BoardCard & { warnings: ClashWarning[] }> = [];
   for (const v of all) {
