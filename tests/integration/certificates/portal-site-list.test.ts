@@ -72,7 +72,7 @@ describe('portal site list', () => {
     const knex = db();
     const issued: Row | undefined = await knex('certificates').where('organisation_id', demoIds.org).whereNull('voided_at').whereNotNull('site_id').first();
     expect(issued).toBeDefined();
-    const site: Row = await knex('sites').where('id', issued!.site_id).first();
+    const site: Row = await knex('sites').where('id', String(issued!.site_id)).first();
     const audience: SiteAudience = site.landlord_id ? { organisationId: demoIds.org, landlordId: String(site.landlord_id) } : { organisationId: demoIds.org, homeownerId: String(site.homeowner_id) };
     const copy = (n: number, extra: Row) => ({
       ...issued,
