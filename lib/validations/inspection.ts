@@ -2,7 +2,10 @@
 // checks, tightness test, findings, make-safe steps, sign-off, no-access and photo details.
 // The field forms (react-hook-form + zodResolver) and POST /api/v1/sync use these same schemas.
 import { z } from 'zod';
+import { FLUE_TYPES } from './flue-types';
 import { APPLIANCE_CATEGORIES, FUEL_IDS, TEST_POINTS, type VerdictLevel } from '../limits/types';
+
+export { FLUE_TYPES, FLUE_TYPE_LABELS, type FlueType } from './flue-types';
 
 /** Blank means "not given"; a decimal comma (some phone keyboards) is read as a point. */
 function toNumberOrNull(v: unknown): unknown {
@@ -56,15 +59,6 @@ const id = (label: string) => z.string({ message: `${label} is required` }).uuid
 const optionalId = (label: string) => z.preprocess((v) => (v === '' || v === undefined ? null : v), id(label).nullable());
 const isoTime = (label: string) => z.iso.datetime({ offset: true, message: `${label} must be a date and time` });
 
-export const FLUE_TYPES = ['open_flue', 'room_sealed', 'balanced', 'fan_assisted', 'flueless'] as const;
-export type FlueType = (typeof FLUE_TYPES)[number];
-export const FLUE_TYPE_LABELS: Record<FlueType, string> = {
-  open_flue: 'Open flue',
-  room_sealed: 'Room-sealed',
-  balanced: 'Balanced flue',
-  fan_assisted: 'Fan-assisted flue',
-  flueless: 'Flueless',
-};
 
 export const applianceDetailsSchema = z.object({
   category: z.enum(APPLIANCE_CATEGORIES, { message: 'Choose a category' }),

@@ -4,7 +4,7 @@
 import { SafetyCaution } from '@/components/safety/caution';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
 import { Button } from '@/components/ui/button';
-import { FLUE_TYPE_LABELS } from '@/lib/validations/inspection';
+import { FLUE_TYPE_LABELS } from '@/lib/validations/flue-types';
 import { FUEL_LABELS, TEST_POINT_LABELS } from '@/lib/limits';
 import { currentReadings, formatRatio } from '@/lib/field';
 import { applianceLabel, makeMutation, type VisitContext } from './use-field';
