@@ -529,30 +529,36 @@ export async function listPortalSites(audience: SiteAudience, siteId?: string): 
   const knex = db();
   const today = await organisationToday(audience.organisationId);
   // One statement: the audience's sites in address order, each with its latest certificate not
-  // voided (found through the (organisation, site, voided, issued) index, migrations/…_110) and
-  // whether a renewal request is open. The sites' columns are all in the landlord's index, so a
-  // landlord with thousands of sites reads no site row.
-  const latestCertificate = knex('certificates as c2')
-    .select('c2.id')
-    .whereRaw('c2.organisation_id = s.organisation_id')
-    .andWhereRaw('c2.site_id = s.id')
-    .whereNull('c2.voided_at')
-    .orderBy([{ column: 'c2.issued_at', order: 'desc' }, { column: 'c2.id', order: 'desc' }])
-    .limit(1);
+  // voided (the newest entry of the (organisation, site, voided, issued) index, migrations/…_110)
+  // and whether a renewal request is open. The sites' columns are all in the landlord's index, so
+  // a landlord with thousands of sites reads no site row.
   const openRequest = knex('renewal_requests as r').select(knex.raw('1')).whereRaw('r.site_id = s.id').andWhereRaw('r.organisation_id = s.organisation_id').andWhere('r.status', 'open');
-  // A certificate's frozen content can be large: it is read only when it can hold an open finding
-  // (LIKE is a first sieve; the pattern below decides, as before).
   const q = knex('sites as s')
-    .leftJoin('certificates as c', (j) => j.on('c.id', '=', knex.raw('?', [latestCertificate])))
     .where('s.organisation_id', audience.organisationId)
     .select(
       's.id', 's.reference', 's.address_line1', 's.address_line2', 's.town', 's.postcode',
       knex.raw('case when exists ? then 1 else 0 end as renewal_requested', [openRequest]),
       'c.id as certificate_id', 'c.number_text', 'c.issued_on', 'c.expires_on', 'c.overall_verdict',
+      // A certificate's frozen content can be large: it is read only when it can hold an open
+      // finding (LIKE is a first sieve; the pattern below decides).
       knex.raw(`case when c.content_json like '%"service"%' or c.content_json like '%"danger"%' then c.content_json end as content_json`),
     )
     .orderBy('s.address_line1')
     .orderBy('s.id');
+  const latest = (alias: string) =>
+    knex(`certificates as ${alias}`)
+      .whereRaw(`${alias}.organisation_id = s.organisation_id`)
+      .andWhereRaw(`${alias}.site_id = s.id`)
+      .whereNull(`${alias}.voided_at`)
+      .orderBy([{ column: `${alias}.issued_at`, order: 'desc' }, { column: `${alias}.id`, order: 'desc' }])
+      .limit(1);
+  if (knex.client.config.client === 'pg') {
+    // PostgreSQL: a lateral join reads that one newest row per site.
+    q.joinRaw('left join lateral ? as c on true', [latest('c').select('c.id', 'c.number_text', 'c.issued_on', 'c.expires_on', 'c.overall_verdict', 'c.content_json')]);
+  } else {
+    // SQLite has no lateral join: the newest row's id, then the row by its key.
+    q.leftJoin('certificates as c', (j) => j.on('c.id', '=', knex.raw('?', [latest('c2').select('c2.id')])));
+  }
   if (audience.landlordId) q.andWhere('s.landlord_id', audience.landlordId);
   if (audience.homeownerId) q.andWhere('s.homeowner_id', audience.homeownerId);
   if (siteId) q.andWhere('s.id', siteId);
