@@ -554,7 +554,9 @@ export async function listPortalSites(audience: SiteAudience, siteId?: string): 
       .limit(1);
   if (knex.client.config.client === 'pg') {
     // PostgreSQL: a lateral join reads that one newest row per site.
-    q.joinRaw('left join lateral ? as c on true', [latest('c').select('c.id', 'c.number_text', 'c.issued_on', 'c.expires_on', 'c.overall_verdict', 'c.content_json')]);
+    // (Knex takes a query as a binding here, as it does in raw(); its types only list values.)
+    const newest = latest('c').select('c.id', 'c.number_text', 'c.issued_on', 'c.expires_on', 'c.overall_verdict', 'c.content_json');
+    q.joinRaw('left join lateral ? as c on true', [newest as unknown as Knex.Value]);
   } else {
     // SQLite has no lateral join: the newest row's id, then the row by its key.
     q.leftJoin('certificates as c', (j) => j.on('c.id', '=', knex.raw('?', [latest('c2').select('c2.id')])));
