@@ -6,6 +6,7 @@ import { CartesianGrid, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YA
 import type { ApplianceHistory, HistoryPoint, LimitPair } from '@/lib/insight';
 import { HINTS_NOTE } from '@/lib/insight';
 import { VerdictBadge } from '@/components/ui/verdict-badge';
+import { HintList } from './hint-list';
 
 type SeriesKey = 'ratio' | 'coAirFreePpm' | 'flueLossPct';
 
@@ -131,20 +132,7 @@ export function ApplianceTrend({ history, compact = false }: { history: Applianc
         <section aria-label="Things to check" className="rounded-lg border border-line bg-card p-3 text-sm" data-testid="diagnostic-hints">
           <h3 className="font-bold">Things to check</h3>
           <p className="text-xs text-ink-soft">{HINTS_NOTE}</p>
-          <ul className="mt-2 flex flex-col gap-2">
-            {hints.map((h) => (
-              <li key={h.code}>
-                <p className="font-semibold">
-                  {h.title} <span className="font-normal text-ink-soft">— {h.because}</span>
-                </p>
-                <ul className="ml-4 list-disc">
-                  {h.checks.map((c) => (
-                    <li key={c}>{c}</li>
-                  ))}
-                </ul>
-              </li>
-            ))}
-          </ul>
+          <HintList hints={hints} />
         </section>
       ) : null}
     </section>

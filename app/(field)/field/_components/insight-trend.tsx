@@ -4,6 +4,7 @@
 // small inline SVG line and a table, and what to check. Reads the trend the server put in the cached
 // visit bundle, so it shows offline and adds no chart library to the visit screen.
 import { VerdictBadge } from '@/components/ui/verdict-badge';
+import { HintList } from '@/components/insight/hint-list';
 import { formatRatio, type FieldTrend, type TrendPoint } from '@/lib/field';
 
 const shortDate = (date: string) => new Date(`${date}T12:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
@@ -176,20 +177,7 @@ export function TrendDetail({ trend, headingId }: { trend: FieldTrend | undefine
             <details className="text-sm" data-testid="trend-hints">
               <summary className="min-h-11 cursor-pointer py-2 font-semibold text-copper-dark">Things to check ({trend.hints.length})</summary>
               <p className="text-xs text-ink-soft">Suggestions from common trade practice, not a verdict; the manufacturer’s instructions come first.</p>
-              <ul className="mt-1 flex flex-col gap-2">
-                {trend.hints.map((h) => (
-                  <li key={h.code}>
-                    <p className="font-semibold">
-                      {h.title} <span className="font-normal text-ink-soft">— {h.because}</span>
-                    </p>
-                    <ul className="ml-4 list-disc">
-                      {h.checks.map((c) => (
-                        <li key={c}>{c}</li>
-                      ))}
-                    </ul>
-                  </li>
-                ))}
-              </ul>
+              <HintList hints={trend.hints} />
             </details>
           ) : null}
         </>
