@@ -194,6 +194,33 @@ async function applyInspectionSave(ctx: Ctx<'inspection.save'>): Promise<Outcome
 
 const READING_FIELD: Record<string, string> = { coPpm: 'values.coPpm', co2Pct: 'values.co2Pct', o2Pct: 'values.o2Pct', flueTempC: 'values.flueTemp', airTempC: 'values.airTemp' };
 
+/** The readings row for a recorded reading (one place for both the single and the batch path). */
+function readingRow(
+  p: MutationOf<'reading.record'>['payload'],
+  values: ReturnType<typeof canonicalReading>,
+  inspectionId: string,
+  user: { id: string; organisationId: string },
+  now: string,
+): Row {
+  return {
+    id: p.readingId,
+    organisation_id: user.organisationId,
+    inspection_id: inspectionId,
+    test_point: p.testPoint,
+    replaces_id: p.replacesId,
+    co_ppm: values.coPpm,
+    co2_pct: values.co2Pct,
+    o2_pct: values.o2Pct,
+    flue_temp_c: values.flueTempC,
+    air_temp_c: values.airTempC,
+    temp_unit: values.tempUnit,
+    analyser_id: p.analyserId,
+    taken_at: p.takenAt,
+    recorded_by: user.id,
+    created_at: now,
+  };
+}
+
 async function applyReading(ctx: Ctx<'reading.record'>): Promise<Outcome> {
   const p = ctx.mutation.payload;
   const inspection = await ensureInspection(ctx, p.applianceId);
@@ -226,23 +253,7 @@ async function applyReading(ctx: Ctx<'reading.record'>): Promise<Outcome> {
     }
   }
 
-  await ctx.trx('readings').insert({
-    id: p.readingId,
-    organisation_id: ctx.user.organisationId,
-    inspection_id: inspection.id,
-    test_point: p.testPoint,
-    replaces_id: p.replacesId,
-    co_ppm: values.coPpm,
-    co2_pct: values.co2Pct,
-    o2_pct: values.o2Pct,
-    flue_temp_c: values.flueTempC,
-    air_temp_c: values.airTempC,
-    temp_unit: values.tempUnit,
-    analyser_id: p.analyserId,
-    taken_at: p.takenAt,
-    recorded_by: ctx.user.id,
-    created_at: ctx.now,
-  });
+  await ctx.trx('readings').insert(readingRow(p, values, String(inspection.id), ctx.user, ctx.now));
   const warnings: string[] = [];
   if (analyser && values.coPpm > Number(analyser.co_range_max_ppm)) {
     warnings.push(`CO ${values.coPpm} ppm is above the analyser's range (${Number(analyser.co_range_max_ppm)} ppm): the true value may be higher.`);
@@ -756,23 +767,7 @@ function stageReading(state: RunState, visit: Row, mutation: MutationOf<'reading
       created_at: now,
     });
   }
-  writes.readings.push({
-    id: p.readingId,
-    organisation_id: user.organisationId,
-    inspection_id: inspection.id,
-    test_point: p.testPoint,
-    replaces_id: p.replacesId,
-    co_ppm: values.coPpm,
-    co2_pct: values.co2Pct,
-    o2_pct: values.o2Pct,
-    flue_temp_c: values.flueTempC,
-    air_temp_c: values.airTempC,
-    temp_unit: values.tempUnit,
-    analyser_id: p.analyserId,
-    taken_at: p.takenAt,
-    recorded_by: user.id,
-    created_at: now,
-  });
+  writes.readings.push(readingRow(p, values, String(inspection.id), user, now));
   state.readingIds.add(p.readingId);
   state.atPoint.set(pointKey, [...existing, { id: p.readingId, replaces_id: p.replacesId, test_point: p.testPoint, taken_at: p.takenAt, recorded_by: user.id }]);
   const warnings: string[] = [];
