@@ -71,6 +71,8 @@ const REFUSED: Hostile[] = [
   { name: 'path traversal in the photo id', make: async () => ({ bytes: await jpeg(), meta: { id: '../../../etc/passwd' } }), status: [422] },
   { name: 'path traversal in the visit id', make: async () => ({ bytes: await jpeg(), meta: { visitId: '../../other-org' } }), status: [422] },
   { name: 'encoded traversal in the photo id', make: async () => ({ bytes: await jpeg(), meta: { id: '..%2F..%2Fx' } }), status: [422] },
+  // PostgreSQL refuses NUL in text columns; the route refuses it first, on both engines, naming the field.
+  { name: 'NUL character in the caption', make: async () => ({ bytes: await jpeg(), meta: { caption: 'Boiler\u0000<script>' } }), status: [422] },
   { name: "another engineer's visit", make: async () => ({ bytes: await jpeg(), meta: { visitId: (await db()('visits').where({ engineer_id: people().otherEngineer.id }).first('id')).id as string } }), status: [404] },
 ];
 

@@ -30,6 +30,9 @@ export const POST = apiRoute(['engineer'], async ({ req, user }) => {
 
   const fields: Record<string, string> = {};
   for (const [key, value] of form.entries()) if (typeof value === 'string') fields[key] = value;
+  // As for JSON bodies (lib/api/handler.ts): PostgreSQL cannot store NUL in text, so refuse it here on both engines.
+  const withNul = Object.keys(fields).filter((k) => k.includes('\u0000') || fields[k]!.includes('\u0000'));
+  if (withNul.length) throw new AppError('invalid_input', 'Text may not contain NUL characters.', Object.fromEntries(withNul.map((k) => [k.replaceAll('\u0000', ''), 'remove the NUL (\\u0000) characters'])));
   const parsed = photoMetaSchema.safeParse(fields);
   if (!parsed.success) throw new AppError('invalid_input', 'Some photo details are not valid.', fieldsFromIssues(parsed.error.issues));
   const meta = parsed.data;
