@@ -62,3 +62,14 @@ export function knexConfig(settings: { DATABASE_URL?: string; DATABASE_FILE: str
     migrations: { migrationSource },
   };
 }
+
+/**
+ * On SQLite, takes the write lock at the start of a transaction. A transaction that reads first and
+ * writes later cannot wait for another process's write (SQLite refuses the upgrade at once with
+ * "database is locked", whatever busy_timeout says); writing first waits like any other write.
+ * The statement changes no row. On PostgreSQL row locks do this job, so it does nothing there.
+ */
+export async function takeWriteLock(trx: Knex.Transaction): Promise<void> {
+  if (String(trx.client.config.client) === 'pg') return;
+  await trx.raw('update organisations set id = id where 0');
+}

@@ -6,6 +6,7 @@ import 'server-only';
 import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
 import { db } from './knex';
+import { takeWriteLock } from './config';
 import { nowIso, toDateOnly, toIso } from './rows';
 import { applianceColumns, applianceDetailsFromRow, getOrganisationTimeZone, loadVisitRecords } from './inspections';
 import { loadLimitContextForSite } from './code-profiles';
@@ -536,6 +537,7 @@ async function applyItem(user: SyncUser, mutation: Mutation): Promise<MutationRe
     const prepared = await prepare(user, mutation, visit);
 
     const outcome = await knex.transaction(async (trx) => {
+      await takeWriteLock(trx);
       // Checked again inside the transaction: the acknowledgement is only ever for a committed change.
       const again = (await trx('sync_mutations').where({ id: mutation.id }).first()) as Stored | undefined;
       if (again) return { duplicate: again, result: null };
@@ -779,6 +781,7 @@ function stageReading(state: RunState, visit: Row, mutation: MutationOf<'reading
 
 async function applyRunInOneTransaction(user: SyncUser, mutations: readonly Mutation[]): Promise<MutationResult[]> {
   return db().transaction(async (trx) => {
+    await takeWriteLock(trx);
     const now = nowIso();
     const q = await runDb(trx);
     const writes: RunWrites = { inspections: [], visits: new Map(), conflicts: [], readings: [], mutations: [] };

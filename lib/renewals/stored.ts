@@ -11,6 +11,7 @@
 // refreshRenewalDates first, which recomputes only the sites not fresh (an index lookup when none
 // are). Server-only: takes a Knex instance, so the migration that backfills the columns can use it.
 import type { Knex } from 'knex';
+import { takeWriteLock } from '../../db/config';
 import { dateInZone, expiryFromHistory, type IsoDate, type RenewalPolicy } from './index';
 
 /** UTC instant from a timestamp column as either driver returns it (Date on PostgreSQL, text on SQLite). */
@@ -46,10 +47,7 @@ const CHUNK = 500;
 
 async function refreshChunk(trx: Knex.Transaction, organisationId: string, ids: string[]): Promise<void> {
   const isPg = String(trx.client.config.client) === 'pg';
-  // On SQLite a transaction that reads and then writes cannot wait for another server's write (the
-  // upgrade fails at once with "database is locked"); writing first takes the write lock up front,
-  // waiting out busy_timeout like any other write. The statement changes no row.
-  if (!isPg) await trx.raw('update sites set renewal_fresh = renewal_fresh where 0');
+  await takeWriteLock(trx);
   // On PostgreSQL the rows are locked first: a visit changed by a transaction still running marks
   // its site through a trigger, which then waits for this one and leaves the site not fresh again.
   const siteQuery = trx('sites').whereIn('id', ids).andWhere({ organisation_id: organisationId, renewal_fresh: false }).select('id', 'jurisdiction_id');
