@@ -195,6 +195,18 @@ async function applyInspectionSave(ctx: Ctx<'inspection.save'>): Promise<Outcome
 
 const READING_FIELD: Record<string, string> = { coPpm: 'values.coPpm', co2Pct: 'values.co2Pct', o2Pct: 'values.o2Pct', flueTempC: 'values.flueTemp', airTempC: 'values.airTemp' };
 
+/** A reading's values in canonical units, analysed for its appliance's fuel; a bad value is refused naming its field. */
+function checkedReading(raw: MutationOf<'reading.record'>['payload']['values'], inspection: Row): ReturnType<typeof canonicalReading> {
+  const values = canonicalReading(raw);
+  const details = JSON.parse(String(inspection.appliance_json)) as ApplianceDetails;
+  const check = analyseReading(values, details.fuel);
+  if (check.error) {
+    const field = READING_FIELD[check.error.field] ?? check.error.field;
+    throw new AppError('invalid_input', check.error.message, { [field]: check.error.message });
+  }
+  return values;
+}
+
 /** The readings row for a recorded reading (one place for both the single and the batch path). */
 function readingRow(
   p: MutationOf<'reading.record'>['payload'],
@@ -226,13 +238,7 @@ async function applyReading(ctx: Ctx<'reading.record'>): Promise<Outcome> {
   const p = ctx.mutation.payload;
   const inspection = await ensureInspection(ctx, p.applianceId);
   const analyser = await checkAnalyser(ctx, p.analyserId, 'analyserId');
-  const values = canonicalReading(p.values);
-  const details = JSON.parse(String(inspection.appliance_json)) as ApplianceDetails;
-  const check = analyseReading(values, details.fuel);
-  if (check.error) {
-    const field = READING_FIELD[check.error.field] ?? check.error.field;
-    throw new AppError('invalid_input', check.error.message, { [field]: check.error.message });
-  }
+  const values = checkedReading(p.values, inspection);
   if (await ctx.trx('readings').where({ id: p.readingId }).first()) throw new AppError('conflict', 'A reading with this id is already recorded.', { readingId: 'Already recorded' });
 
   const existing: Row[] = await ctx.trx('readings').where({ inspection_id: inspection.id, test_point: p.testPoint });
@@ -727,13 +733,7 @@ function stageReading(state: RunState, visit: Row, mutation: MutationOf<'reading
     analyser = state.analysers.get(p.analyserId) ?? null;
     if (!analyser) throw new AppError('invalid_input', 'That analyser is not in your register.', { analyserId: 'No such analyser in the register' });
   }
-  const values = canonicalReading(p.values);
-  const details = JSON.parse(String(inspection.appliance_json)) as ApplianceDetails;
-  const check = analyseReading(values, details.fuel);
-  if (check.error) {
-    const field = READING_FIELD[check.error.field] ?? check.error.field;
-    throw new AppError('invalid_input', check.error.message, { [field]: check.error.message });
-  }
+  const values = checkedReading(p.values, inspection);
   if (state.readingIds.has(p.readingId)) throw new AppError('conflict', 'A reading with this id is already recorded.', { readingId: 'Already recorded' });
 
   const pointKey = `${String(inspection.id)}|${p.testPoint}`;
